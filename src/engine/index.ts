@@ -1,0 +1,32 @@
+// The engine's only public surface. Pure TypeScript: no Office, no DOM, no Node I/O.
+export { EngineError, isEngineError } from "./errors";
+export type { EngineErrorCode } from "./errors";
+
+export { boxCox, boxCoxInverse, boxCoxInverseDetailed, boxCoxShifted, boxCoxShiftedInverse, LAMBDA_ZERO } from "./transform/box-cox";
+export type { InverseStatus } from "./transform/box-cox";
+export { yeoJohnson, yeoJohnsonInverse } from "./transform/yeo-johnson";
+export { boxCoxLogLik, lambdaMle, MLE_MIN_LENGTH } from "./transform/lambda-mle";
+export type { LambdaMleOptions, LambdaMleResult } from "./transform/lambda-mle";
+export { lambdaGuerrero, guerreroObjective } from "./transform/guerrero";
+export type { GuerreroOptions, GuerreroResult } from "./transform/guerrero";
+export { readableLambda, READABLE_LAMBDAS } from "./transform/readable";
+export { fitLambda } from "./transform/fit-lambda";
+export type { FitLambdaOptions, LambdaChoice, LambdaMethod } from "./transform/fit-lambda";
+export { DEFAULT_LAMBDA_BOUNDS } from "./transform/bounds";
+
+export { screenSeries } from "./series/screen";
+export type { RawCell, ScreenResult, SuggestedFix } from "./series/screen";
+
+export { normalCdf, normalPdf, normalQuantile, normalSf } from "./distribution/normal";
+export { chiSquareQuantile, chiSquareSf } from "./distribution/chisquare";
+export {
+  backtransformMean,
+  backtransformMeanExact,
+  backtransformMeanTaylor,
+  backtransformMedian,
+  backtransformQuantile,
+  backtransformQuantileDetailed,
+} from "./distribution/backtransform";
+export type { ExactMean, MeanMethod, QuantileValue } from "./distribution/backtransform";
+export { impliedLambda, meanFromInterval } from "./distribution/from-interval";
+export type { RecoveredForecast } from "./distribution/from-interval";

@@ -1,0 +1,142 @@
+import { EngineError, isEngineError } from "../errors";
+import { fmt } from "../_lib/check";
+import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
+import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
+
+/** A raw cell as the faces hand it over: a number, text, a boolean, or blank (null/undefined/""). */
+export type RawCell = number | string | boolean | null | undefined;
+
+/** What to do about a series before Box-Cox. */
+export type SuggestedFix = "none" | "shift" | "yeo-johnson" | "too-short" | "fill-gaps" | "constant" | "no-numbers";
+
+/** Screening of one series. */
+export interface ScreenResult {
+  label: string;
+  /** Numeric values. */
+  n: number;
+  blanks: number;
+  leadingBlanks: number;
+  trailingBlanks: number;
+  /** 1-based positions of blanks between the first and last number. */
+  interiorGaps: number[];
+  /** Text and boolean cells (not counted as numbers). */
+  textCells: number;
+  min: number | null;
+  max: number | null;
+  zeros: number;
+  negatives: number;
+  nonPositive: number;
+  boxCoxUsable: boolean;
+  /** Suggested λ (the readable value inside the likelihood interval), when Box-Cox is usable. */
+  suggestedLambda: number | null;
+  lambda: LambdaChoice | null;
+  fix: SuggestedFix;
+  /** Suggested shift c for a shifted Box-Cox (value + c > 0), when the fix is "shift" or "yeo-johnson". */
+  shift: number | null;
+  /** A sentence a user understands. */
+  message: string;
+}
+
+function isBlank(c: RawCell): boolean {
+  return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
+}
+
+/**
+ * Screens a raw series for Box-Cox: counts numbers, blanks (leading, trailing, interior) and text;
+ * finds the minimum and values ≤ 0; says whether Box-Cox is usable, suggests λ (Guerrero 1993 with
+ * window = period, 2 when period is 1; maximum likelihood, Box & Cox 1964, when the series is too
+ * short for two windows) and, when Box-Cox is not usable, the fix (shift by c, Yeo-Johnson 2000,
+ * fill the gaps, or "too short").
+ * @example screenSeries([3, 0, 5, 6], { label: "Old Quay" }).fix // "shift"
+ */
+export function screenSeries(cells: readonly RawCell[], options: { period?: number; label?: string } = {}): ScreenResult {
+  const label = options.label ?? "the series";
+  const period = options.period ?? 1;
+  if (!Number.isInteger(period) || period < 1) {
+    throw new EngineError("input", `period must be a whole number of at least 1 (12 for monthly data, 4 for quarterly, 1 for none); got ${period}.`);
+  }
+  const numbers: number[] = [];
+  const positions: number[] = [];
+  let blanks = 0;
+  let textCells = 0;
+  for (let i = 0; i < cells.length; i++) {
+    const c = cells[i];
+    if (isBlank(c)) blanks++;
+    else if (typeof c === "number" && Number.isFinite(c)) {
+      numbers.push(c);
+      positions.push(i);
+    } else textCells++;
+  }
+  const first = positions.length ? positions[0] : cells.length;
+  const last = positions.length ? positions[positions.length - 1] : -1;
+  const interiorGaps: number[] = [];
+  for (let i = first + 1; i < last; i++) if (isBlank(cells[i])) interiorGaps.push(i + 1);
+  let trailingBlanks = 0;
+  for (let i = cells.length - 1; i > last && isBlank(cells[i]); i--) trailingBlanks++;
+  let leadingBlanks = 0;
+  for (let i = 0; i < first && isBlank(cells[i]); i++) leadingBlanks++;
+
+  let min: number | null = null;
+  let max: number | null = null;
+  let zeros = 0;
+  let negatives = 0;
+  for (const v of numbers) {
+    if (min === null || v < min) min = v;
+    if (max === null || v > max) max = v;
+    if (v === 0) zeros++;
+    else if (v < 0) negatives++;
+  }
+  const nonPositive = zeros + negatives;
+  const base = { label, n: numbers.length, blanks, leadingBlanks, trailingBlanks, interiorGaps, textCells, min, max, zeros, negatives, nonPositive };
+  const textNote = textCells ? ` ${textCells} text cell${textCells > 1 ? "s are" : " is"} ignored.` : "";
+
+  if (numbers.length === 0) {
+    return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix: "no-numbers", shift: null, message: `${cap(label)} has no numbers.${textNote}` };
+  }
+  if (nonPositive > 0) {
+    const smallestPositive = numbers.filter((v) => v > 0).reduce((a, b) => Math.min(a, b), Infinity);
+    const shift = -(min as number) + (Number.isFinite(smallestPositive) ? smallestPositive : 1);
+    const what = [zeros ? `${zeros} zero${zeros > 1 ? "s" : ""}` : "", negatives ? `${negatives} negative value${negatives > 1 ? "s" : ""}` : ""].filter(Boolean).join(" and ");
+    const fix: SuggestedFix = negatives > 0 ? "yeo-johnson" : "shift";
+    const advice = negatives > 0
+      ? `use Yeo-Johnson, or shift by c = ${fmt(shift)} before Box-Cox`
+      : `shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`;
+    return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix, shift, message: `Not Box-Cox ready: ${label} has ${what} (minimum ${fmt(min as number)}); Box-Cox needs values > 0. ${cap(advice)}.${textNote}` };
+  }
+  if (numbers.length < MLE_MIN_LENGTH) {
+    return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix: "too-short", shift: null, message: `${cap(label)} is too short: ${numbers.length} value${numbers.length > 1 ? "s" : ""}; at least ${MLE_MIN_LENGTH} are needed to choose λ. Give λ yourself (0 for the log).${textNote}` };
+  }
+  if (numbers.every((v) => v === numbers[0])) {
+    return { ...base, boxCoxUsable: true, suggestedLambda: 1, lambda: null, fix: "constant", shift: null, message: `${cap(label)} is constant; no transform is needed (λ = 1).${textNote}` };
+  }
+  const window = period > 1 ? period : 2;
+  let lambda: LambdaChoice;
+  try {
+    lambda = fitLambda(numbers, { method: numbers.length >= 2 * window ? "guerrero" : "mle", period, label });
+  } catch (e) {
+    if (!isEngineError(e)) throw e;
+    return { ...base, boxCoxUsable: true, suggestedLambda: null, lambda: null, fix: "too-short", shift: null, message: `${e.message}${textNote}` };
+  }
+  const how = lambda.method === "guerrero" ? `Guerrero's method, windows of ${window}` : `maximum likelihood (too short for Guerrero's windows of ${window})`;
+  const gaps = interiorGaps.length
+    ? ` ${interiorGaps.length} blank${interiorGaps.length > 1 ? "s" : ""} inside the series (position${interiorGaps.length > 1 ? "s" : ""} ${listPositions(interiorGaps)}): fill ${interiorGaps.length > 1 ? "them" : "it"} before forecasting.`
+    : "";
+  const lead = leadingBlanks ? ` ${leadingBlanks} leading blank${leadingBlanks > 1 ? "s" : ""} skipped.` : "";
+  return {
+    ...base,
+    boxCoxUsable: true,
+    suggestedLambda: lambda.readable,
+    lambda,
+    fix: interiorGaps.length ? "fill-gaps" : "none",
+    shift: null,
+    message: `Box-Cox ready. Suggested λ = ${fmt(lambda.readable)} (estimate ${fmt(lambda.lambda)} by ${how}).${lead}${gaps}${textNote}`,
+  };
+}
+
+function listPositions(p: number[]): string {
+  return p.length <= 5 ? p.join(", ") : `${p.slice(0, 5).join(", ")}, …`;
+}
+
+function cap(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
+}

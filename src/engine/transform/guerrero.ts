@@ -1,0 +1,105 @@
+import { EngineError } from "../errors";
+import { minimizeScanned } from "../_lib/scan";
+import { requirePositiveSeries } from "../series/positive";
+import { boundHit, checkLambdaBounds } from "./bounds";
+
+/** Options for {@link lambdaGuerrero}. */
+export interface GuerreroOptions {
+  /** Subseries length R: the seasonal period, or 2 for non-seasonal data (the default). */
+  window?: number;
+  lower?: number;
+  upper?: number;
+  label?: string;
+}
+
+/** Result of {@link lambdaGuerrero}. */
+export interface GuerreroResult {
+  lambda: number;
+  /** The coefficient of variation minimised, at λ. */
+  cv: number;
+  window: number;
+  /** Number of complete subseries used. */
+  groups: number;
+  /** Observations left out at the start so the subseries are complete. */
+  dropped: number;
+  bounds: [number, number];
+  onBound: "lower" | "upper" | null;
+  n: number;
+}
+
+/**
+ * Prepares Guerrero's objective for a series: the coefficient of variation (sample sd / mean)
+ * of r_h = s_h / m_h^(1−λ) over H non-overlapping subseries of length R, with m_h and s_h
+ * (sample sd, divisor R − 1) each subseries' mean and spread. The first n mod R observations
+ * are left out so every subseries is complete (the statsmodels 0.13 convention).
+ * Source: Guerrero (1993), Journal of Forecasting 12:37–48.
+ */
+export function guerreroObjective(values: readonly number[], window: number): { cv: (lambda: number) => number; groups: number; dropped: number } {
+  const n = values.length;
+  const groups = Math.floor(n / window);
+  const dropped = n - groups * window;
+  const logMean = new Float64Array(groups);
+  const sd = new Float64Array(groups);
+  for (let h = 0; h < groups; h++) {
+    const start = dropped + h * window;
+    let m = 0;
+    for (let j = 0; j < window; j++) m += values[start + j];
+    m /= window;
+    let ss = 0;
+    for (let j = 0; j < window; j++) {
+      const d = values[start + j] - m;
+      ss += d * d;
+    }
+    logMean[h] = Math.log(m);
+    sd[h] = Math.sqrt(ss / (window - 1));
+  }
+  const r = new Float64Array(groups);
+  const cv = (lambda: number): number => {
+    let mean = 0;
+    for (let h = 0; h < groups; h++) {
+      r[h] = sd[h] * Math.exp((lambda - 1) * logMean[h]);
+      mean += r[h];
+    }
+    mean /= groups;
+    let ss = 0;
+    for (let h = 0; h < groups; h++) {
+      const d = r[h] - mean;
+      ss += d * d;
+    }
+    return Math.sqrt(ss / (groups - 1)) / mean;
+  };
+  return { cv, groups, dropped };
+}
+
+/**
+ * λ by Guerrero's method (Guerrero 1993): minimise the coefficient of variation of
+ * s_h / m_h^(1−λ) over subseries of length R (default 2; pass the seasonal period) on
+ * [lower, upper] (default [−1, 2]), by a grid scan then Brent's method.
+ * Needs R ≥ 2, at least two complete subseries, positive values, and some variation within them.
+ * @example lambdaGuerrero(airPassengers, { window: 12 }).lambda // -0.294723 (statsmodels 0.13.5)
+ */
+export function lambdaGuerrero(values: readonly number[], options: GuerreroOptions = {}): GuerreroResult {
+  const label = options.label ?? "the series";
+  const window = options.window ?? 2;
+  if (!Number.isInteger(window) || window < 2) {
+    throw new EngineError("input", `Guerrero's window (the season length) must be a whole number of at least 2; got ${window}. Use 2 for data without a season.`);
+  }
+  requirePositiveSeries(values, 2 * window, label, `Guerrero's method with windows of ${window} (two complete windows)`);
+  const bounds = checkLambdaBounds(options.lower, options.upper);
+  const obj = guerreroObjective(values, window);
+  const at1 = obj.cv(1);
+  if (!Number.isFinite(at1)) {
+    throw new EngineError("input", `${label} does not vary within its windows of ${window}, so Guerrero's method has nothing to compare. Give λ yourself or use the maximum-likelihood method.`);
+  }
+  const best = minimizeScanned(obj.cv, bounds[0], bounds[1], 31, 1e-11);
+  return {
+    lambda: best.x,
+    cv: best.fx,
+    window,
+    groups: obj.groups,
+    dropped: obj.dropped,
+    bounds,
+    onBound: boundHit(best.x, bounds),
+    n: values.length,
+  };
+}
