@@ -1,4 +1,4 @@
-import stdQuantile from "@stdlib/stats-base-dists-normal-quantile";
+import erfcinv from "@stdlib/math-base-special-erfcinv";
 import erfc from "@stdlib/math-base-special-erfc";
 import { EngineError } from "../errors";
 
@@ -7,15 +7,17 @@ const INV_SQRT_2PI = 0.3989422804014327;
 
 /**
  * Standard normal quantile z_p = Φ⁻¹(p), for 0 < p < 1.
- * Method: @stdlib/stats-base-dists-normal-quantile (inverse error function, Boost-derived
- * rational approximations; ~1e-16 relative). Throws for p outside (0, 1).
+ * Method: z_p = −√2·erfcinv(2p) with @stdlib/math-base-special-erfcinv (Boost-derived rational
+ * approximations, ~1e-16 relative). Using erfcinv of 2p, never of 1 − p, keeps full relative
+ * accuracy in the lower tail (p = 1e-10 and smaller). Throws for p outside (0, 1).
  * @example normalQuantile(0.975) // 1.959963984540054
  */
 export function normalQuantile(p: number): number {
   if (!(p > 0 && p < 1)) {
     throw new EngineError("input", `A probability must be strictly between 0 and 1; got ${p}.`);
   }
-  return stdQuantile(p, 0, 1);
+  if (p === 0.5) return 0;
+  return -Math.SQRT2 * erfcinv(2 * p);
 }
 
 /**
