@@ -30,3 +30,8 @@ export {
 export type { ExactMean, MeanMethod, QuantileValue } from "./distribution/backtransform";
 export { impliedLambda, meanFromInterval } from "./distribution/from-interval";
 export type { RecoveredForecast } from "./distribution/from-interval";
+export { cleanSeries } from "./series/clean";
+export type { CleanSeries } from "./series/clean";
+export { requirePositiveSeries, isConstant } from "./series/positive";
+export { createRandom } from "./_lib/random";
+export type { Random } from "./_lib/random";

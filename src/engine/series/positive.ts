@@ -42,8 +42,9 @@ export function isConstant(values: readonly number[]): boolean {
   return true;
 }
 
+/** Capitalises a generic label ("the series") at the start of a sentence; names stay as written. */
 function cap(s: string): string {
-  return s.charAt(0).toUpperCase() + s.slice(1);
+  return s.startsWith("the ") ? "T" + s.slice(1) : s;
 }
 
 export { fmt };

@@ -49,8 +49,9 @@ function isBlank(c: RawCell): boolean {
  * fill the gaps, or "too short").
  * @example screenSeries([3, 0, 5, 6], { label: "Old Quay" }).fix // "shift"
  */
-export function screenSeries(cells: readonly RawCell[], options: { period?: number; label?: string } = {}): ScreenResult {
+export function screenSeries(cells: readonly RawCell[], options: { period?: number; label?: string; where?: (index: number) => string } = {}): ScreenResult {
   const label = options.label ?? "the series";
+  const where = options.where ?? ((i: number) => `position ${i + 1}`);
   const period = options.period ?? 1;
   if (!Number.isInteger(period) || period < 1) {
     throw new EngineError("input", `period must be a whole number of at least 1 (12 for monthly data, 4 for quarterly, 1 for none); got ${period}.`);
@@ -80,11 +81,14 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   let max: number | null = null;
   let zeros = 0;
   let negatives = 0;
-  for (const v of numbers) {
+  let firstBad = -1;
+  for (let k = 0; k < numbers.length; k++) {
+    const v = numbers[k];
     if (min === null || v < min) min = v;
     if (max === null || v > max) max = v;
     if (v === 0) zeros++;
     else if (v < 0) negatives++;
+    if (v <= 0 && firstBad < 0) firstBad = positions[k];
   }
   const nonPositive = zeros + negatives;
   const base = { label, n: numbers.length, blanks, leadingBlanks, trailingBlanks, interiorGaps, textCells, min, max, zeros, negatives, nonPositive };
@@ -99,9 +103,9 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
     const what = [zeros ? `${zeros} zero${zeros > 1 ? "s" : ""}` : "", negatives ? `${negatives} negative value${negatives > 1 ? "s" : ""}` : ""].filter(Boolean).join(" and ");
     const fix: SuggestedFix = negatives > 0 ? "yeo-johnson" : "shift";
     const advice = negatives > 0
-      ? `use Yeo-Johnson, or shift by c = ${fmt(shift)} before Box-Cox`
-      : `shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`;
-    return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix, shift, message: `Not Box-Cox ready: ${label} has ${what} (minimum ${fmt(min as number)}); Box-Cox needs values > 0. ${cap(advice)}.${textNote}` };
+      ? `Use Yeo-Johnson, or shift by c = ${fmt(shift)} before Box-Cox`
+      : `Shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`;
+    return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix, shift, message: `Not Box-Cox ready: ${label} has ${what} (minimum ${fmt(min as number)}, first at ${where(firstBad)}); Box-Cox needs values > 0. ${advice}.${textNote}` };
   }
   if (numbers.length < MLE_MIN_LENGTH) {
     return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix: "too-short", shift: null, message: `${cap(label)} is too short: ${numbers.length} value${numbers.length > 1 ? "s" : ""}; at least ${MLE_MIN_LENGTH} are needed to choose λ. Give λ yourself (0 for the log).${textNote}` };
@@ -119,7 +123,7 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   }
   const how = lambda.method === "guerrero" ? `Guerrero's method, windows of ${window}` : `maximum likelihood (too short for Guerrero's windows of ${window})`;
   const gaps = interiorGaps.length
-    ? ` ${interiorGaps.length} blank${interiorGaps.length > 1 ? "s" : ""} inside the series (position${interiorGaps.length > 1 ? "s" : ""} ${listPositions(interiorGaps)}): fill ${interiorGaps.length > 1 ? "them" : "it"} before forecasting.`
+    ? ` ${interiorGaps.length} blank${interiorGaps.length > 1 ? "s" : ""} inside the series (at ${listPositions(interiorGaps.map((p) => where(p - 1)))}): fill ${interiorGaps.length > 1 ? "them" : "it"} before forecasting.`
     : "";
   const lead = leadingBlanks ? ` ${leadingBlanks} leading blank${leadingBlanks > 1 ? "s" : ""} skipped.` : "";
   return {
@@ -133,10 +137,11 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   };
 }
 
-function listPositions(p: number[]): string {
+function listPositions(p: string[]): string {
   return p.length <= 5 ? p.join(", ") : `${p.slice(0, 5).join(", ")}, …`;
 }
 
+/** Capitalises a generic label ("the series") at the start of a sentence; names stay as written. */
 function cap(s: string): string {
-  return s.charAt(0).toUpperCase() + s.slice(1);
+  return s.startsWith("the ") ? "T" + s.slice(1) : s;
 }

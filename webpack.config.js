@@ -1,0 +1,73 @@
+// Builds the add-in into dist/: functions.js + functions.json (metadata generated from JSDoc by
+// custom-functions-metadata-plugin; bad metadata fails the build), the task pane page that hosts
+// both (shared runtime), and the icons. `npm start` serves the same build over https.
+const path = require("path");
+const fs = require("fs");
+const HtmlWebpackPlugin = require("html-webpack-plugin");
+const CopyWebpackPlugin = require("copy-webpack-plugin");
+const CustomFunctionsMetadataPlugin = require("custom-functions-metadata-plugin");
+
+const CERTS = path.join(__dirname, ".certs");
+
+module.exports = (env, argv) => {
+  const dev = argv.mode !== "production";
+  const https =
+    fs.existsSync(path.join(CERTS, "localhost.crt"))
+      ? {
+          type: "https",
+          options: {
+            ca: fs.readFileSync(path.join(CERTS, "ca.crt")),
+            cert: fs.readFileSync(path.join(CERTS, "localhost.crt")),
+            key: fs.readFileSync(path.join(CERTS, "localhost.key")),
+          },
+        }
+      : "http";
+  return {
+    mode: dev ? "development" : "production",
+    // No eval-based source maps: the pane's Content-Security-Policy forbids eval.
+    devtool: "source-map",
+    entry: {
+      functions: "./src/functions/functions.ts",
+      taskpane: "./src/taskpane/index.ts",
+    },
+    output: {
+      path: path.resolve(__dirname, "dist"),
+      filename: "[name].js",
+      clean: true,
+    },
+    resolve: { extensions: [".ts", ".js"] },
+    module: {
+      rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { configFile: "tsconfig.json", compilerOptions: { noEmit: false, sourceMap: true } } } }],
+    },
+    performance: { hints: false },
+    plugins: [
+      new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./src/functions/functions.ts" }),
+      new HtmlWebpackPlugin({
+        filename: "taskpane.html",
+        template: "./src/taskpane/taskpane.html",
+        chunks: ["functions", "taskpane"],
+        scriptLoading: "blocking",
+        inject: "body",
+      }),
+      new CopyWebpackPlugin({
+        patterns: [
+          { from: "assets/*.png", to: "assets/[name][ext]" },
+          { from: "src/taskpane/taskpane.css", to: "taskpane.css" },
+        ],
+      }),
+    ],
+    devServer: {
+      port: 3000,
+      server: https,
+      headers: { "Access-Control-Allow-Origin": "*" },
+      static: false,
+      devMiddleware: { writeToDisk: true },
+      // Watch only the sources: watching the repo root makes the copy plugin rebuild forever.
+      watchFiles: ["src/**/*"],
+      hot: false,
+      liveReload: false,
+      client: false,
+      open: false,
+    },
+  };
+};
