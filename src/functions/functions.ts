@@ -1,3 +1,4 @@
+import "./runtime-guard";
 // The @customfunction wrappers only: coerce → engine → map error (DESIGN.md). Metadata
 // (functions.json) is generated from these JSDoc blocks by custom-functions-metadata-plugin.
 import {
@@ -6,7 +7,7 @@ import {
 } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber } from "./coerce";
 import { toExcelError } from "./excel-errors";
-import { elementwise, finiteTable, OutCell } from "./shape";
+import { elementwise, finiteTable } from "./shape";
 
 function guard<T>(f: () => T): T {
   try {
@@ -25,7 +26,7 @@ function guard<T>(f: () => T): T {
  * @param {number} [shift] Added to every value first (shifted Box-Cox). Default 0.
  * @returns {any[][]} Transformed values, same shape as values.
  */
-export function BOXCOX(values: unknown[][], lambda: number, shift?: number): OutCell[][] {
+export function BOXCOX(values: any[][], lambda: number, shift?: number): any[][] {
   return guard(() => {
     const l = requiredNumber(lambda, "lambda");
     const c = optionalNumber(shift, "shift", 0);
@@ -42,7 +43,7 @@ export function BOXCOX(values: unknown[][], lambda: number, shift?: number): Out
  * @param {number} [shift] The shift used in the transform, subtracted at the end. Default 0.
  * @returns {any[][]} Values on the original scale, same shape as values.
  */
-export function BOXCOXINV(values: unknown[][], lambda: number, shift?: number): OutCell[][] {
+export function BOXCOXINV(values: any[][], lambda: number, shift?: number): any[][] {
   return guard(() => {
     const l = requiredNumber(lambda, "lambda");
     const c = optionalNumber(shift, "shift", 0);
@@ -58,7 +59,7 @@ export function BOXCOXINV(values: unknown[][], lambda: number, shift?: number): 
  * @param {number} lambda The Yeo-Johnson λ, between -5 and 5 (1 = no change).
  * @returns {any[][]} Transformed values, same shape as values.
  */
-export function YEOJOHNSON(values: unknown[][], lambda: number): OutCell[][] {
+export function YEOJOHNSON(values: any[][], lambda: number): any[][] {
   return guard(() => {
     const l = requiredNumber(lambda, "lambda");
     return elementwise([{ name: "values", cells: readMatrix(values, "values") }], (y) => yeoJohnson(y, l));
@@ -73,7 +74,7 @@ export function YEOJOHNSON(values: unknown[][], lambda: number): OutCell[][] {
  * @param {number} lambda The Yeo-Johnson λ used, between -5 and 5.
  * @returns {any[][]} Values on the original scale, same shape as values.
  */
-export function YEOJOHNSONINV(values: unknown[][], lambda: number): OutCell[][] {
+export function YEOJOHNSONINV(values: any[][], lambda: number): any[][] {
   return guard(() => {
     const l = requiredNumber(lambda, "lambda");
     return elementwise([{ name: "values", cells: readMatrix(values, "values") }], (w) => yeoJohnsonInverse(w, l));
@@ -91,7 +92,7 @@ export function YEOJOHNSONINV(values: unknown[][], lambda: number): OutCell[][] 
  * @param {number} [upper] Highest λ to consider. Default 2.
  * @returns {any[][]} One row per series: λ, interval low, interval high, readable λ.
  */
-export function FITLAMBDA(values: unknown[][], method?: string, period?: number, lower?: number, upper?: number): OutCell[][] {
+export function FITLAMBDA(values: any[][], method?: string, period?: number, lower?: number, upper?: number): any[][] {
   return guard(() => {
     const m = optionalKeyword(method, "method", ["guerrero", "mle"] as const, "guerrero");
     const p = optionalInteger(period, "period", 1, 1);
@@ -123,7 +124,7 @@ function naCell(message: string): CustomFunctions.Error {
  * @param {number} [period] Season length: 12 for monthly, 4 for quarterly, 1 for none (default 1).
  * @returns {any[][]} One row per series: n, blanks, text cells, minimum, count ≤ 0, Box-Cox usable, suggested λ, suggested fix.
  */
-export function SCREEN(values: unknown[][], period?: number): OutCell[][] {
+export function SCREEN(values: any[][], period?: number): any[][] {
   return guard(() => {
     const p = optionalInteger(period, "period", 1, 1);
     const s = readSeries(values);
@@ -144,7 +145,7 @@ export function SCREEN(values: unknown[][], period?: number): OutCell[][] {
  * @param {string} [method] "taylor" (default, second-order approximation) or "exact" (integral; not defined for λ < 0).
  * @returns {any[][]} The mean on the original scale, same shape as mu.
  */
-export function BTMEAN(mu: unknown[][], sd: unknown[][], lambda: number, method?: string): OutCell[][] {
+export function BTMEAN(mu: any[][], sd: any[][], lambda: number, method?: string): any[][] {
   return guard(() => {
     const l = requiredNumber(lambda, "lambda");
     const m = optionalKeyword(method, "method", ["taylor", "exact"] as const, "taylor");
@@ -162,7 +163,7 @@ export function BTMEAN(mu: unknown[][], sd: unknown[][], lambda: number, method?
  * @param {any[][]} p Probabilities strictly between 0 and 1 (a cell or a row, e.g. 0.1 and 0.9).
  * @returns {any[][]} One row per mu, one column per probability.
  */
-export function BTQUANTILE(mu: unknown[][], sd: unknown[][], lambda: number, p: unknown[][]): OutCell[][] {
+export function BTQUANTILE(mu: any[][], sd: any[][], lambda: number, p: any[][]): any[][] {
   return guard(() => {
     const l = requiredNumber(lambda, "lambda");
     const mus = readMatrix(mu, "mu").flat();
@@ -189,7 +190,7 @@ export function BTQUANTILE(mu: unknown[][], sd: unknown[][], lambda: number, p: 
  * @param {string} [method] "taylor" (default) or "exact".
  * @returns {any[][]} The mean on the original scale, same shape as median.
  */
-export function MEANFROMINTERVAL(median: unknown[][], lower: unknown[][], upper: unknown[][], level: number, lambda?: number, method?: string): OutCell[][] {
+export function MEANFROMINTERVAL(median: any[][], lower: any[][], upper: any[][], level: number, lambda?: number, method?: string): any[][] {
   return guard(() => {
     const lv = requiredNumber(level, "level");
     const l = optionalNumber(lambda, "lambda", 0);
@@ -211,7 +212,7 @@ export function MEANFROMINTERVAL(median: unknown[][], lower: unknown[][], upper:
  * @param {any[][]} upper The interval's upper end, same shape as median.
  * @returns {any[][]} λ for each interval, same shape as median.
  */
-export function IMPLIEDLAMBDA(median: unknown[][], lower: unknown[][], upper: unknown[][]): OutCell[][] {
+export function IMPLIEDLAMBDA(median: any[][], lower: any[][], upper: any[][]): any[][] {
   return guard(() => elementwise([
     { name: "median", cells: readMatrix(median, "median") },
     { name: "lower", cells: readMatrix(lower, "lower") },
