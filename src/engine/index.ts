@@ -35,3 +35,4 @@ export type { CleanSeries } from "./series/clean";
 export { requirePositiveSeries, isConstant } from "./series/positive";
 export { createRandom } from "./_lib/random";
 export type { Random } from "./_lib/random";
+export { requireLevelPercent as checkLevelPercent, requireLambda as checkLambda } from "./_lib/check";

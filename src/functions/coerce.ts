@@ -73,9 +73,11 @@ export function columnName(i: number): string {
 export function readSeries(range: ExcelValue, name = "values"): SeriesRange {
   const r = requireRange(range, name);
   const rows = r.length;
-  const cols = r[0].length;
   const cells: RawCell[][] = r.map((row, i) => row.map((v, j) => toRawCell(v, `${name} row ${i + 1}, column ${columnName(j)}`)));
   if (rows === 1) {
+    if (!cells[0].some((c) => typeof c === "number")) {
+      throw new EngineError("input", `${name} has no numbers${cells[0].some((c) => typeof c === "string") ? " (only a header?)" : ""}; select the series' values too.`);
+    }
     return { names: ["row 1"], series: [cells[0]], headerRows: 0 };
   }
   const first = cells[0];

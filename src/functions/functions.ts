@@ -3,7 +3,7 @@ import "./runtime-guard";
 // (functions.json) is generated from these JSDoc blocks by custom-functions-metadata-plugin.
 import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
-  fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError,
+  fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber } from "./coerce";
 import { toExcelError } from "./excel-errors";
@@ -28,7 +28,7 @@ function guard<T>(f: () => T): T {
  */
 export function BOXCOX(values: any[][], lambda: number, shift?: number): any[][] {
   return guard(() => {
-    const l = requiredNumber(lambda, "lambda");
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
     const c = optionalNumber(shift, "shift", 0);
     return elementwise([{ name: "values", cells: readMatrix(values, "values") }], (y) => (c === 0 ? boxCox(y, l) : boxCoxShifted(y, l, c)));
   });
@@ -45,7 +45,7 @@ export function BOXCOX(values: any[][], lambda: number, shift?: number): any[][]
  */
 export function BOXCOXINV(values: any[][], lambda: number, shift?: number): any[][] {
   return guard(() => {
-    const l = requiredNumber(lambda, "lambda");
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
     const c = optionalNumber(shift, "shift", 0);
     return elementwise([{ name: "values", cells: readMatrix(values, "values") }], (w) => (c === 0 ? boxCoxInverse(w, l) : boxCoxShiftedInverse(w, l, c)));
   });
@@ -61,7 +61,7 @@ export function BOXCOXINV(values: any[][], lambda: number, shift?: number): any[
  */
 export function YEOJOHNSON(values: any[][], lambda: number): any[][] {
   return guard(() => {
-    const l = requiredNumber(lambda, "lambda");
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
     return elementwise([{ name: "values", cells: readMatrix(values, "values") }], (y) => yeoJohnson(y, l));
   });
 }
@@ -76,7 +76,7 @@ export function YEOJOHNSON(values: any[][], lambda: number): any[][] {
  */
 export function YEOJOHNSONINV(values: any[][], lambda: number): any[][] {
   return guard(() => {
-    const l = requiredNumber(lambda, "lambda");
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
     return elementwise([{ name: "values", cells: readMatrix(values, "values") }], (w) => yeoJohnsonInverse(w, l));
   });
 }
@@ -147,7 +147,7 @@ export function SCREEN(values: any[][], period?: number): any[][] {
  */
 export function BTMEAN(mu: any[][], sd: any[][], lambda: number, method?: string): any[][] {
   return guard(() => {
-    const l = requiredNumber(lambda, "lambda");
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
     const m = optionalKeyword(method, "method", ["taylor", "exact"] as const, "taylor");
     return elementwise([{ name: "mu", cells: readMatrix(mu, "mu") }, { name: "sd", cells: readMatrix(sd, "sd") }], (a, b) => backtransformMean(a, b, l, m));
   });
@@ -165,7 +165,7 @@ export function BTMEAN(mu: any[][], sd: any[][], lambda: number, method?: string
  */
 export function BTQUANTILE(mu: any[][], sd: any[][], lambda: number, p: any[][]): any[][] {
   return guard(() => {
-    const l = requiredNumber(lambda, "lambda");
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
     const mus = readMatrix(mu, "mu").flat();
     const sds = readMatrix(sd, "sd").flat();
     const ps = readMatrix(p, "p").flat();
@@ -193,7 +193,8 @@ export function BTQUANTILE(mu: any[][], sd: any[][], lambda: number, p: any[][])
 export function MEANFROMINTERVAL(median: any[][], lower: any[][], upper: any[][], level: number, lambda?: number, method?: string): any[][] {
   return guard(() => {
     const lv = requiredNumber(level, "level");
-    const l = optionalNumber(lambda, "lambda", 0);
+    checkLevelPercent(lv);
+    const l = checkLambda(optionalNumber(lambda, "lambda", 0));
     const m = optionalKeyword(method, "method", ["taylor", "exact"] as const, "taylor");
     return elementwise([
       { name: "median", cells: readMatrix(median, "median") },

@@ -47,6 +47,10 @@ export function requireLevelPercent(level: unknown, name = "level"): number {
   if (!(v > 0 && v < 100)) {
     throw new EngineError("input", `${name} must be a percentage strictly between 0 and 100 (e.g. 80 or 95); got ${fmt(v)}.`);
   }
+  if (v < 1) {
+    // A level below 1% is almost surely a fraction typed for a percentage.
+    throw new EngineError("input", `${name} is in percent: give 95 for a 95% interval, not ${fmt(v)}.`);
+  }
   return v / 100;
 }
 

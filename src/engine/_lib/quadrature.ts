@@ -1,6 +1,7 @@
 // Adaptive Gauss–Kronrod quadrature (7-point Gauss, 15-point Kronrod), in the manner of
 // QUADPACK's QAG (Piessens, de Doncker-Kapenga, Überhuber & Kahaner, QUADPACK, Springer 1983).
 
+/* eslint-disable no-loss-of-precision -- the nodes and weights are quoted to QUADPACK's 33 digits; the parser rounds them to the nearest double. */
 const XGK = [
   0.991455371120812639206854697526329, 0.949107912342758524526189684047851,
   0.864864423359769072789712788640926, 0.741531185599394439863864773280788,
@@ -17,6 +18,8 @@ const WG = [
   0.129484966168869693270611432679082, 0.279705391489276667901467771423780,
   0.381830050505118944950369775488975, 0.417959183673469387755102040816327,
 ];
+
+/* eslint-enable no-loss-of-precision */
 
 interface Piece { a: number; b: number; value: number; error: number }
 

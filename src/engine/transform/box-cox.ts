@@ -16,7 +16,11 @@ export function boxCox(y: number, lambda: number): number {
   if (!(y > 0)) {
     throw new EngineError("input", `Box-Cox needs values > 0; got ${fmt(y)}. Shift the series (shifted Box-Cox) or use Yeo-Johnson.`);
   }
-  return boxCoxUnchecked(y, lambda);
+  const w = boxCoxUnchecked(y, lambda);
+  if (!Number.isFinite(w)) {
+    throw new EngineError("domain", `Box-Cox of ${fmt(y)} with λ = ${fmt(lambda)} is too large to represent; use a smaller λ (e.g. 0, the log).`);
+  }
+  return w;
 }
 
 /** Box-Cox without argument checks, for inner loops whose inputs are already validated. */

@@ -32,11 +32,13 @@ export function profileLogLik(values: readonly number[]): (lambda: number) => nu
     } else {
       let maxArg = -Infinity;
       for (let i = 0; i < n; i++) if (lambda * logs[i] > maxArg) maxArg = lambda * logs[i];
-      if (maxArg < 300) {
+      if (maxArg < 300 && maxArg > -30) {
         for (let i = 0; i < n; i++) work[i] = Math.expm1(lambda * logs[i]) / lambda;
         logVar = Math.log(variance(work));
       } else {
-        // y^λ would overflow: factor out exp(max λ·ln y). var(w) = e^{2M}·var(e^{λ ln y − M})/λ².
+        // y^λ would overflow (M > 300), or every y^λ is so small that w = (y^λ − 1)/λ rounds to
+        // the same number (M < −30): factor out exp(M), M = max λ·ln y. The −1 is a shift, so
+        // var(w) = e^{2M}·var(e^{λ ln y − M})/λ².
         for (let i = 0; i < n; i++) work[i] = Math.exp(lambda * logs[i] - maxArg);
         logVar = 2 * maxArg + Math.log(variance(work)) - 2 * Math.log(Math.abs(lambda));
       }

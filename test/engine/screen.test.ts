@@ -1,0 +1,75 @@
+// Series screening: the counts are checked by hand on small inputs; the λ it suggests is the
+// Guerrero estimate checked against statsmodels in lambda.test.ts.
+import { cleanSeries, screenSeries } from "../../src/engine";
+import { check, dataset, expectClose } from "../helpers/reference";
+
+describe("screenSeries counts what a user needs to know", () => {
+  test("numbers, blanks (leading, trailing, interior), text, minimum and values ≤ 0", () => {
+    const r = screenSeries([null, "", 5, 6, null, "n/a", 7, true, 8, null], { label: "Shop" });
+    expect(r.n).toBe(4);
+    expect(r.blanks).toBe(4);
+    expect(r.leadingBlanks).toBe(2);
+    expect(r.trailingBlanks).toBe(1);
+    expect(r.interiorGaps).toEqual([5]);
+    expect(r.textCells).toBe(2);
+    expect(r.min).toBe(5);
+    expect(r.nonPositive).toBe(0);
+    expect(r.fix).toBe("fill-gaps");
+    expect(r.message).toMatch(/blank inside the series \(at position 5\)/);
+  });
+  test("a zero month makes Box-Cox unusable and suggests a shift", () => {
+    const r = screenSeries([120, 0, 130, 140, 150, 160], { label: "Old Quay" });
+    expect(r.boxCoxUsable).toBe(false);
+    expect(r.fix).toBe("shift");
+    expect(r.shift).toBe(120);
+    expect(r.message).toMatch(/Not Box-Cox ready: Old Quay has 1 zero \(minimum 0, first at position 2\).*Shift it by c = 120/);
+  });
+  test("a negative month suggests Yeo-Johnson (or a shift past the minimum)", () => {
+    const r = screenSeries([120, -30, 130, 140, 150, 160], { label: "Parts" });
+    expect(r.fix).toBe("yeo-johnson");
+    expect(r.shift).toBe(150);
+    expect(r.message).toMatch(/1 negative value.*Yeo-Johnson/);
+  });
+  test("too short to choose λ", () => {
+    const r = screenSeries([3, 4, 5]);
+    expect(r.fix).toBe("too-short");
+    expect(r.message).toMatch(/at least 4/);
+  });
+  test("no numbers at all", () => {
+    expect(screenSeries([null, "x"]).fix).toBe("no-numbers");
+  });
+  test("a constant series needs no transform", () => {
+    const r = screenSeries([5, 5, 5, 5, 5]);
+    expect(r.fix).toBe("constant");
+    expect(r.suggestedLambda).toBe(1);
+  });
+  test("the suggested λ is Guerrero's (window = period), rounded within the likelihood interval (source: statsmodels 0.13.5 via lambda.guerrero.AirPassengers)", () => {
+    const r = screenSeries(dataset("AirPassengers"), { period: 12 });
+    expectClose(r.lambda?.lambda as number, check("lambda.guerrero.AirPassengers").expected.window12_sd.lambda_tight, { atol: 1e-6 }, "lambda");
+    expect(r.suggestedLambda).toBe(0);
+    expect(r.boxCoxUsable).toBe(true);
+  });
+  test("a series too short for Guerrero's windows falls back to maximum likelihood", () => {
+    const r = screenSeries([10, 12, 15, 11, 13, 18, 20, 16], { period: 12 });
+    expect(r.lambda?.method).toBe("mle");
+  });
+  test("refuses a period that is not a whole number ≥ 1", () => {
+    expect(() => screenSeries([1, 2, 3, 4], { period: 0 })).toThrow(/period/);
+    expect(() => screenSeries([1, 2, 3, 4], { period: 2.5 })).toThrow(/period/);
+  });
+});
+
+describe("cleanSeries trims the ends and refuses interior gaps", () => {
+  test("leading and trailing blanks are trimmed and counted", () => {
+    const c = cleanSeries([null, null, 3, 4, 5, ""]);
+    expect(c.values).toEqual([3, 4, 5]);
+    expect(c.leadingBlanks).toBe(2);
+    expect(c.trailingBlanks).toBe(1);
+  });
+  test("an interior blank is refused, naming its row", () => {
+    expect(() => cleanSeries([3, null, 5], "Millbrook", 2)).toThrow(/Millbrook has a blank in row 3/);
+  });
+  test("interior text is refused, naming its row", () => {
+    expect(() => cleanSeries([3, "closed", 5], "Millbrook")).toThrow(/text \("closed"\) in row 2/);
+  });
+});
