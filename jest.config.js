@@ -9,4 +9,5 @@ module.exports = {
     "^office-addin-manifest$": "<rootDir>/node_modules/office-addin-manifest/lib/officeApp.js",
   },
   testTimeout: 60000,
+  reporters: ["default", "<rootDir>/test/helpers/summary-reporter.js"],
 };
