@@ -16,7 +16,10 @@ export function requireFinite(x: unknown, name: string): number {
   return x;
 }
 
-/** Requires λ finite and within [-5, 5] (wider values are almost surely a typo). */
+/**
+ * Requires λ finite and within [−5, 5] (wider values are almost surely a typo); returns it.
+ * @example requireLambda(0.5) // 0.5
+ */
 export function requireLambda(lambda: unknown, name = "lambda"): number {
   const l = requireFinite(lambda, name);
   if (l < -5 || l > 5) {
@@ -41,7 +44,11 @@ export function requireProbability(p: unknown, name = "p"): number {
   return v;
 }
 
-/** Requires a coverage level in percent, strictly inside (0, 100); returns it as a fraction. */
+/**
+ * Requires a coverage level in percent, strictly inside (0, 100) and at least 1 (a smaller value
+ * is almost surely a fraction typed for a percentage); returns it as a fraction.
+ * @example requireLevelPercent(95) // 0.95
+ */
 export function requireLevelPercent(level: unknown, name = "level"): number {
   const v = requireFinite(level, name);
   if (!(v > 0 && v < 100)) {

@@ -33,6 +33,7 @@ export interface GuerreroResult {
  * (sample sd, divisor R − 1) each subseries' mean and spread. The first n mod R observations
  * are left out so every subseries is complete (the statsmodels 0.13 convention).
  * Source: Guerrero (1993), Journal of Forecasting 12:37–48.
+ * @example guerreroObjective(nile, 2).cv(1) // 0.755904140432374 (statsmodels _guerrero_cv)
  */
 export function guerreroObjective(values: readonly number[], window: number): { cv: (lambda: number) => number; groups: number; dropped: number } {
   const n = values.length;
