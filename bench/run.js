@@ -38,6 +38,65 @@ function time(f) {
   return { seconds: Number(process.hrtime.bigint() - t0) / 1e9, result: r };
 }
 
+function etsSeries(count, length) {
+  // Log-scale monthly series: a local level with drift and a changing season, plus noise.
+  const rng = engine.createRandom(4242);
+  const out = new Float64Array(count * length);
+  for (let s = 0; s < count; s++) {
+    let level = Math.log(100 + 900 * rng.uniform());
+    let slope = 0.002 + 0.01 * rng.uniform();
+    const amp = 0.05 + 0.3 * rng.uniform();
+    const noise = 0.01 + 0.05 * rng.uniform();
+    const season = Array.from({ length: 12 }, (_, k) => amp * Math.sin((2 * Math.PI * k) / 12));
+    for (let t = 0; t < length; t++) {
+      slope += 0.0005 * rng.normal();
+      level += slope + 0.3 * noise * rng.normal();
+      season[t % 12] += 0.1 * noise * rng.normal();
+      out[s * length + t] = level + season[t % 12] + noise * rng.normal();
+    }
+  }
+  return out;
+}
+
+function benchEts(py, haveStatsmodels) {
+  const count = Number(process.env.FANWISE_BENCH_ETS_SERIES || 1000);
+  const length = 120;
+  const data = etsSeries(count, length);
+  const rows = [];
+  for (let s = 0; s < count; s++) rows.push(Array.from(data.subarray(s * length, (s + 1) * length)));
+  for (let s = 0; s < 20; s++) engine.fitSmoothing(rows[s], "holt-winters", 12);
+  let tmp = null;
+  if (haveStatsmodels) {
+    tmp = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "fanwise-bench-")), "ets.f64");
+    fs.writeFileSync(tmp, Buffer.from(data.buffer));
+  }
+  for (const method of ["holt-winters", "damped"]) {
+    const ours = time(() => rows.map((x) => engine.fitSmoothing(x, method, 12).loglik));
+    console.log(`${method}, ${count} series × ${length}: Fanwise ${ours.seconds.toFixed(2)} s (${((ours.seconds / count) * 1e3).toFixed(2)} ms per fit, grid of starts + Nelder–Mead)`);
+    if (!haveStatsmodels) continue;
+    const r = spawnSync(py, [path.join(__dirname, "statsmodels_ets.py"), tmp, String(count), String(length), method], { encoding: "utf8", maxBuffer: 1 << 28 });
+    if (r.status !== 0) {
+      console.log(`  statsmodels comparison failed: ${r.stderr.trim().split("\n").pop()}`);
+      continue;
+    }
+    const ref = JSON.parse(r.stdout);
+    let asGood = 0;
+    let worst = 0;
+    ref.llf.forEach((l, i) => {
+      if (ours.result[i] >= l - 1e-6) asGood++;
+      worst = Math.min(worst, ours.result[i] - l);
+    });
+    console.log(`  statsmodels ETSModel (default start) on the same series: ${ref.seconds.toFixed(2)} s; speed ratio ${(ref.seconds / ours.seconds).toFixed(1)}×; our log-likelihood ≥ statsmodels' − 1e-6 on ${((100 * asGood) / count).toFixed(1)}% of series (worst shortfall ${worst.toExponential(2)})`);
+  }
+  // Cost of a total: 10,000 paths × 24 steps, simulated and back-transformed.
+  const f = engine.fitForecast(rows[0].map(Math.exp), { method: "holt-winters", lambda: 0, period: 12 });
+  engine.totalForecast(f, 24);
+  const tot = time(() => engine.totalForecast(f, 24, { paths: 10000 }));
+  console.log(`total over 24 steps from 10,000 simulated paths (holt-winters, log scale): ${(tot.seconds * 1e3).toFixed(0)} ms`);
+  const auto = time(() => engine.fitForecast(Array.from({ length: 240 }, (_, t) => Math.exp(data[t % data.length] + 0.002 * t)), { period: 12 }));
+  console.log(`worst realistic cell call: auto on 20 years of monthly data: ${(auto.seconds * 1e3).toFixed(0)} ms (${auto.result.method})`);
+}
+
 function main() {
   const data = makeSeries();
   const rows = [];
@@ -54,8 +113,17 @@ function main() {
   console.log(`λ by Guerrero's method (window 12):                               ${guerrero.seconds.toFixed(2)} s (${((guerrero.seconds / COUNT) * 1e6).toFixed(0)} µs per series)`);
 
   const py = "/usr/bin/python3";
-  const probe = fs.existsSync(py) ? spawnSync(py, ["-c", "import scipy"], { encoding: "utf8" }) : { status: 1 };
-  if (probe.status !== 0) {
+  const has = (mod) => fs.existsSync(py) && spawnSync(py, ["-c", `import ${mod}`], { encoding: "utf8" }).status === 0;
+  const haveScipy = has("scipy");
+  const haveStatsmodels = has("statsmodels");
+  if (!haveStatsmodels) console.log("statsmodels comparison skipped: Debian's python3-statsmodels is not installed.");
+  benchLambda(py, haveScipy, data, rows, mle, mleOnly);
+  console.log("");
+  benchEts(py, haveStatsmodels);
+}
+
+function benchLambda(py, haveScipy, data, rows, mle, mleOnly) {
+  if (!haveScipy) {
     console.log("scipy comparison skipped: Debian's python3-scipy is not installed (apt-get install -y python3-scipy).");
     return;
   }

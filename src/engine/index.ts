@@ -36,3 +36,18 @@ export { requirePositiveSeries, isConstant } from "./series/positive";
 export { createRandom } from "./_lib/random";
 export type { Random } from "./_lib/random";
 export { requireLevelPercent as checkLevelPercent, requireLambda as checkLambda } from "./_lib/check";
+
+export { METHODS, SMOOTHING, parseMethod, isBenchmark } from "./models/methods";
+export type { MethodName, SmoothingMethod, BenchmarkMethod } from "./models/methods";
+export type { FittedModel, StepMoments } from "./models/types";
+export { fitSmoothing, smoothingWithParams, parameterCount, minimumLength } from "./models/ets";
+export type { Smoothing, InitialStates } from "./models/ets";
+export { fitBenchmark } from "./models/benchmarks";
+export { fitAuto } from "./models/select";
+export type { AutoChoice, Candidate } from "./models/select";
+export { stateSpaceMoments } from "./models/state-space";
+export type { StateSpaceForm } from "./models/state-space";
+export { fitForecast, checkHorizon } from "./models/fit";
+export type { Forecaster, ForecastOptions, LambdaSpec } from "./models/fit";
+export { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels } from "./models/fan";
+export type { FanRow, FanTable, Maybe, TotalForecast, DescriptionRow } from "./models/fan";

@@ -1,0 +1,390 @@
+// Exponential smoothing with additive errors as innovations state-space models (Hyndman,
+// Koehler, Ord & Snyder 2008, ch. 2 and 6): A,N,N / A,A,N / A,Ad,N / A,N,A / A,A,A / A,Ad,A.
+//   ŷ_t = ℓ_{t−1} + φb_{t−1} + s_{t−m}, e_t = y_t − ŷ_t
+//   ℓ_t = ℓ_{t−1} + φb_{t−1} + αe_t,  b_t = φb_{t−1} + βe_t,  s_t = s_{t−m} + γe_t
+// Estimation by Gaussian maximum likelihood (minimise n·ln SSE). The initial states enter the
+// errors linearly, so for given smoothing parameters they are solved exactly by least squares
+// (a concentrated likelihood), and only α, β, γ, φ are searched: a grid of starts, then
+// Nelder–Mead from the best few, inside the usual admissible box.
+import { EngineError } from "../errors";
+import { solveSymmetric } from "../_lib/cholesky";
+import { minimizeBounded } from "../_lib/brent";
+import { minimizeBox } from "../_lib/nelder-mead";
+import { createRandom } from "../_lib/random";
+import { SMOOTHING, SmoothingMethod } from "./methods";
+import { stateSpaceMoments, StateSpaceForm } from "./state-space";
+import type { FittedModel, StepMoments } from "./types";
+
+/** Bounds of the smoothing parameters (as statsmodels 0.13 uses): α, β/α, γ/(1 − α) in [1e-4, 1 − 1e-4]. */
+export const SMOOTH_LO = 1e-4;
+export const SMOOTH_HI = 1 - 1e-4;
+/** Bounds of the damping parameter (the usual admissible box). */
+export const PHI_LO = 0.8;
+export const PHI_HI = 0.98;
+
+/** Smoothing parameters of an additive-error model (β = 0 without trend, γ = 0 without season, φ = 1 undamped). */
+export interface Smoothing { alpha: number; beta: number; gamma: number; phi: number }
+
+/** Initial states: level, trend, and the seasonal effect of each of the first m observations. */
+export interface InitialStates { level: number; trend: number; season: number[] }
+
+interface Spec { trend: boolean; damped: boolean; seasonal: boolean; m: number }
+
+function specOf(method: SmoothingMethod, period: number): Spec {
+  const s = SMOOTHING[method];
+  return { trend: s.trend, damped: s.damped, seasonal: s.seasonal, m: s.seasonal ? period : 1 };
+}
+
+/**
+ * Number of parameters in the AICc: smoothing + damping + free initial states (one seasonal state
+ * is fixed at 0, so m − 1 are free) + σ².
+ * @example parameterCount("holt-winters", 12) // 17
+ */
+export function parameterCount(method: SmoothingMethod, period: number): number {
+  const s = specOf(method, period);
+  return 1 + (s.trend ? 2 : 0) + (s.damped ? 1 : 0) + (s.seasonal ? 1 + (s.m - 1) : 0) + 1 + 1;
+}
+
+/**
+ * Smallest series a method can be fitted to: two full seasons for seasonal ones, and n ≥ k + 2.
+ * @example minimumLength("holt-winters", 12) // 24
+ */
+export function minimumLength(method: SmoothingMethod, period: number): number {
+  const s = specOf(method, period);
+  return Math.max(s.seasonal ? 2 * s.m : 4, parameterCount(method, period) + 2);
+}
+
+/** Runs the filter from given states; returns the SSE and the final states (and residuals if asked). */
+function filter(y: ArrayLike<number>, spec: Spec, p: Smoothing, x0: InitialStates, resid?: Float64Array): { sse: number; level: number; trend: number; ring: Float64Array } {
+  const n = y.length;
+  const m = spec.m;
+  const ring = new Float64Array(m);
+  for (let j = 0; j < m; j++) ring[j] = spec.seasonal ? x0.season[j] : 0;
+  let l = x0.level;
+  let b = spec.trend ? x0.trend : 0;
+  const phi = spec.damped ? p.phi : 1;
+  const beta = spec.trend ? p.beta : 0;
+  const gamma = spec.seasonal ? p.gamma : 0;
+  let sse = 0;
+  for (let t = 0; t < n; t++) {
+    const k = t % m;
+    const pb = phi * b;
+    const e = y[t] - (l + pb + ring[k]);
+    if (resid) resid[t] = e;
+    sse += e * e;
+    l = l + pb + p.alpha * e;
+    b = pb + beta * e;
+    ring[k] += gamma * e;
+  }
+  return { sse, level: l, trend: b, ring };
+}
+
+/** Reusable work arrays for {@link concentrate}, sized for one series and model. */
+interface Workspace {
+  E: Float64Array; lag: Float64Array; ring: Float64Array; A: Float64Array; rhs: Float64Array;
+  chol: { L: Float64Array; y: Float64Array; x: Float64Array }; q: number;
+}
+
+function workspace(n: number, spec: Spec): Workspace {
+  const m = spec.m;
+  const q = 1 + (spec.trend ? 1 : 0) + (spec.seasonal ? m - 1 : 0);
+  return {
+    E: new Float64Array(4 * n), lag: new Float64Array(Math.max(m - 1, 1) * n), ring: new Float64Array(m),
+    A: new Float64Array(q * q), rhs: new Float64Array(q),
+    chol: { L: new Float64Array(q * q), y: new Float64Array(q), x: new Float64Array(q) }, q,
+  };
+}
+
+function dotAt(E: Float64Array, oa: number, ob: number, n: number): number {
+  let s = 0;
+  for (let t = 0; t < n; t++) s += E[oa + t] * E[ob + t];
+  return s;
+}
+
+/**
+ * For given smoothing parameters, the SSE at the least-squares initial states (which are left
+ * in ws.chol.x: level, [trend], seasonal 2..m). The errors are linear in the initial states:
+ * e = e0 + E·x0. The filter is run for the data (zero initial states) and for a unit initial
+ * level, trend and position-0 seasonal; a unit seasonal at position j only starts to act at time
+ * j, so (the filter being time-invariant and the seasonal ring indexed by t mod m) its error
+ * response is the position-0 response delayed by j. The Gram matrix of those delayed copies comes
+ * from cumulative lagged products, so the cost is O(n·m) rather than O(n·m²).
+ */
+function concentrate(y: ArrayLike<number>, spec: Spec, p: Smoothing, ws: Workspace): number {
+  const n = y.length;
+  const m = spec.m;
+  const T = spec.trend;
+  const S = spec.seasonal;
+  const q = ws.q;
+  const phi = spec.damped ? p.phi : 1;
+  const beta = T ? p.beta : 0;
+  const gamma = S ? p.gamma : 0;
+  const alpha = p.alpha;
+  const { E, lag, A, rhs, ring } = ws;
+  // channel 0: data; 1: unit level; 2: unit trend; 3: unit seasonal at ring position 0
+  for (let c = 0; c < 4; c++) {
+    if ((c === 2 && !T) || (c === 3 && !S)) continue;
+    let l = c === 1 ? 1 : 0;
+    let b = c === 2 ? 1 : 0;
+    const base = c * n;
+    const data = c === 0;
+    if (S) {
+      ring.fill(0);
+      if (c === 3) ring[0] = 1;
+      let k = 0;
+      for (let t = 0; t < n; t++) {
+        const pb = phi * b;
+        const e = (data ? y[t] : 0) - (l + pb + ring[k]);
+        E[base + t] = e;
+        l = l + pb + alpha * e;
+        b = pb + beta * e;
+        ring[k] += gamma * e;
+        if (++k === m) k = 0;
+      }
+    } else {
+      for (let t = 0; t < n; t++) {
+        const pb = phi * b;
+        const e = (data ? y[t] : 0) - (l + pb);
+        E[base + t] = e;
+        l = l + pb + alpha * e;
+        b = pb + beta * e;
+      }
+    }
+  }
+  // Free states in order: level, [trend], seasonal 1..m−1. rhs = −E′e0, A = E′E.
+  const g00 = dotAt(E, 0, 0, n);
+  rhs[0] = -dotAt(E, 0, n, n);
+  A[0] = dotAt(E, n, n, n);
+  let off = 1;
+  if (T) {
+    rhs[1] = -dotAt(E, 0, 2 * n, n);
+    A[1] = A[q] = dotAt(E, n, 2 * n, n);
+    A[q + 1] = dotAt(E, 2 * n, 2 * n, n);
+    off = 2;
+  }
+  if (S) {
+    const s3 = 3 * n;
+    // cross terms with the delayed seasonal responses: Σ_{t≥j} E_c[t]·E_S[t−j], c = data, level, trend
+    for (let j = 1; j < m; j++) {
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      for (let t = j; t < n; t++) {
+        const es = E[s3 + t - j];
+        s0 += E[t] * es;
+        s1 += E[n + t] * es;
+        if (T) s2 += E[2 * n + t] * es;
+      }
+      const col = off + j - 1;
+      rhs[col] = -s0;
+      A[col] = A[col * q] = s1;
+      if (T) A[q + col] = A[col * q + 1] = s2;
+    }
+    // seasonal × seasonal: for j ≤ k, Σ_{u=0}^{n−1−k} E_S[u]·E_S[u+k−j], from cumulative sums per lag
+    for (let d = 0; d < m - 1; d++) {
+      let s = 0;
+      const o = d * n;
+      for (let u = 0; u + d < n; u++) {
+        s += E[s3 + u] * E[s3 + u + d];
+        lag[o + u] = s;
+      }
+    }
+    for (let j = 1; j < m; j++) {
+      for (let k = j; k < m; k++) {
+        const v = lag[(k - j) * n + (n - 1 - k)];
+        A[(off + j - 1) * q + off + k - 1] = v;
+        A[(off + k - 1) * q + off + j - 1] = v;
+      }
+    }
+  }
+  const x = solveSymmetric(A, rhs, q, ws.chol);
+  let sse = g00;
+  for (let i = 0; i < q; i++) sse -= x[i] * rhs[i];
+  return Math.max(sse, 1e-300 * (1 + g00));
+}
+
+/** The initial states left in the workspace by the last {@link concentrate} call. */
+function statesOf(ws: Workspace, spec: Spec): InitialStates {
+  const x = ws.chol.x;
+  const season = new Array<number>(spec.m).fill(0);
+  const off = spec.trend ? 2 : 1;
+  if (spec.seasonal) for (let j = 1; j < spec.m; j++) season[j] = x[off + j - 1];
+  return { level: x[0], trend: spec.trend ? x[1] : 0, season };
+}
+
+function smoothingFromUnit(u: number[], spec: Spec): Smoothing {
+  const span = SMOOTH_HI - SMOOTH_LO;
+  const alpha = SMOOTH_LO + span * u[0];
+  let i = 1;
+  const beta = spec.trend ? alpha * (SMOOTH_LO + span * u[i++]) : 0;
+  const gamma = spec.seasonal ? (1 - alpha) * (SMOOTH_LO + span * u[i++]) : 0;
+  const phi = spec.damped ? PHI_LO + (PHI_HI - PHI_LO) * u[i++] : 1;
+  return { alpha, beta, gamma, phi };
+}
+
+function startGrid(spec: Spec): number[][] {
+  const axes: number[][] = [[0.02, 0.1, 0.3, 0.6, 0.95]];
+  if (spec.trend) axes.push([0.01, 0.2, 0.9]);
+  if (spec.seasonal) axes.push([0.01, 0.3, 0.8]);
+  if (spec.damped) axes.push([0.2, 0.9]);
+  let pts: number[][] = [[]];
+  for (const a of axes) pts = pts.flatMap((p) => a.map((v) => [...p, v]));
+  return pts;
+}
+
+/** Options for {@link fitSmoothing}. */
+export interface SmoothingFitOptions {
+  /** Nelder–Mead runs from the best grid starts (default 2). */
+  starts?: number;
+}
+
+/**
+ * Fits an exponential-smoothing model (additive errors) by maximum likelihood: smoothing and
+ * damping parameters by a grid of starts and Nelder–Mead (Nelder & Mead 1965) on the admissible
+ * box 1e-4 ≤ α ≤ 1 − 1e-4, β = α·β* and γ = (1 − α)·γ* with β*, γ* in the same range (so
+ * 0 < β < α and 0 < γ < 1 − α), 0.8 ≤ φ ≤ 0.98; initial states by exact least squares for each
+ * trial (concentrated likelihood). Source: Hyndman et al. (2008), ch. 5 (estimation) and 6.
+ * @example fitSmoothing(logAirPassengers, "holt-winters", 12).loglik // ≥ 275.3 (statsmodels 0.13.5: 275.327)
+ */
+export function fitSmoothing(y: readonly number[], method: SmoothingMethod, period: number, options: SmoothingFitOptions = {}): FittedModel {
+  const spec = specOf(method, period);
+  const need = minimumLength(method, period);
+  if (y.length < need) {
+    throw new EngineError("input", `${SMOOTHING[method].title} (${method}) needs at least ${need} values${spec.seasonal ? ` (two full seasons of ${spec.m} and enough for its parameters)` : ""}; the series has ${y.length}.`);
+  }
+  const ws = workspace(y.length, spec);
+  const obj = (u: number[]): number => Math.log(concentrate(y, spec, smoothingFromUnit(u, spec), ws));
+  let bestU: number[];
+  if (!spec.trend && !spec.seasonal) {
+    // one parameter: a grid, then Brent's method in the best cell
+    const pts = 11;
+    let bi = 0;
+    let bf = Infinity;
+    for (let i = 0; i < pts; i++) {
+      const f = obj([i / (pts - 1)]);
+      if (f < bf) { bf = f; bi = i; }
+    }
+    const r = minimizeBounded((u) => obj([u]), Math.max(0, bi - 1) / (pts - 1), Math.min(pts - 1, bi + 1) / (pts - 1), 1e-9);
+    bestU = [r.x];
+  } else {
+    const grid = startGrid(spec).map((u) => ({ u, f: obj(u) })).sort((a, b) => a.f - b.f);
+    const chosen: number[][] = [];
+    for (const g of grid) {
+      if (chosen.length >= (options.starts ?? 2)) break;
+      if (chosen.every((c) => c.some((v, i) => Math.abs(v - g.u[i]) > 0.2))) chosen.push(g.u);
+    }
+    let best = { x: grid[0].u, fx: grid[0].f };
+    for (const start of chosen) {
+      const r = minimizeBox(obj, start, 0.15, 1e-5, 1e-3, 120);
+      if (r.fx < best.fx) best = r;
+    }
+    const polish = minimizeBox(obj, best.x, 0.01, 1e-10, 1e-7, 150);
+    bestU = polish.fx < best.fx ? polish.x : best.x;
+  }
+  const p = smoothingFromUnit(bestU, spec);
+  concentrate(y, spec, p, ws);
+  const x0 = statesOf(ws, spec);
+  return buildModel(y, method, period, p, x0);
+}
+
+/**
+ * The model with given parameters and initial states (no estimation): for checking against a
+ * reference fit, or for re-use. `x0.season[j]` is the seasonal effect used by observation j.
+ * @example smoothingWithParams([1, 2, 3, 4, 5], "ses", 1, { alpha: 0.5, beta: 0, gamma: 0, phi: 1 }, { level: 1, trend: 0, season: [0] }).sigma
+ */
+export function smoothingWithParams(y: readonly number[], method: SmoothingMethod, period: number, p: Smoothing, x0: InitialStates): FittedModel {
+  return buildModel(y, method, period, p, x0);
+}
+
+function buildModel(y: readonly number[], method: SmoothingMethod, period: number, p: Smoothing, x0: InitialStates): FittedModel {
+  const spec = specOf(method, period);
+  const n = y.length;
+  const resid = new Float64Array(n);
+  const end = filter(y, spec, p, x0, resid);
+  const sigma2 = end.sse / n;
+  const loglik = -0.5 * n * (Math.log((2 * Math.PI * end.sse) / n) + 1);
+  const k = parameterCount(method, period);
+  const aicc = -2 * loglik + 2 * k + (2 * k * (k + 1)) / Math.max(n - k - 1, 1e-9);
+  const m = spec.m;
+  const params: Record<string, number> = { alpha: p.alpha };
+  if (spec.trend) params.beta = p.beta;
+  if (spec.seasonal) params.gamma = p.gamma;
+  if (spec.damped) params.phi = p.phi;
+  params.level0 = x0.level;
+  if (spec.trend) params.trend0 = x0.trend;
+  if (spec.seasonal) for (let j = 0; j < m; j++) params[`season${j + 1}`] = x0.season[j];
+  const form = stateForm(spec, p, end.level, end.trend, end.ring, n);
+  const residuals = Object.freeze(Array.from(resid));
+  const model: FittedModel = {
+    method,
+    title: `${SMOOTHING[method].title} (${SMOOTHING[method].code})`,
+    n,
+    period: m,
+    params: Object.freeze(params),
+    sigma: Math.sqrt(sigma2),
+    loglik,
+    aicc,
+    k,
+    residuals,
+    forecast: (h: number): StepMoments[] => stateSpaceMoments(form, sigma2, h),
+    simulate: (h: number, paths: number, seed: number): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed),
+  };
+  return Object.freeze(model);
+}
+
+/** The state-space form (F, w, g, x_T) with x = (ℓ, b, s_T, s_{T−1}, …, s_{T−m+1}). */
+function stateForm(spec: Spec, p: Smoothing, level: number, trend: number, ring: Float64Array, n: number): StateSpaceForm {
+  const m = spec.m;
+  const d = 1 + (spec.trend ? 1 : 0) + (spec.seasonal ? m : 0);
+  const F = Array.from({ length: d }, () => new Array<number>(d).fill(0));
+  const w = new Array<number>(d).fill(0);
+  const g = new Array<number>(d).fill(0);
+  const x = new Array<number>(d).fill(0);
+  const phi = spec.damped ? p.phi : 1;
+  w[0] = 1;
+  F[0][0] = 1;
+  g[0] = p.alpha;
+  x[0] = level;
+  let s0 = 1;
+  if (spec.trend) {
+    w[1] = phi;
+    F[0][1] = phi;
+    F[1][1] = phi;
+    g[1] = p.beta;
+    x[1] = trend;
+    s0 = 2;
+  }
+  if (spec.seasonal) {
+    w[s0 + m - 1] = 1;
+    F[s0][s0 + m - 1] = 1;
+    for (let i = 1; i < m; i++) F[s0 + i][s0 + i - 1] = 1;
+    g[s0] = p.gamma;
+    for (let i = 0; i < m; i++) x[s0 + i] = ring[(((n - 1 - i) % m) + m) % m];
+  }
+  return { F, w, g, x };
+}
+
+function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number; ring: Float64Array }, n: number, sigma: number, h: number, paths: number, seed: number): Float64Array {
+  const rng = createRandom(seed);
+  const out = new Float64Array(paths * h);
+  const m = spec.m;
+  const phi = spec.damped ? p.phi : 1;
+  const beta = spec.trend ? p.beta : 0;
+  const gamma = spec.seasonal ? p.gamma : 0;
+  const ring = new Float64Array(m);
+  for (let r = 0; r < paths; r++) {
+    let l = end.level;
+    let b = spec.trend ? end.trend : 0;
+    ring.set(end.ring);
+    for (let j = 0; j < h; j++) {
+      const k = (n + j) % m;
+      const pb = phi * b;
+      const e = sigma * rng.normal();
+      out[r * h + j] = l + pb + ring[k] + e;
+      l = l + pb + p.alpha * e;
+      b = pb + beta * e;
+      ring[k] += gamma * e;
+    }
+  }
+  return out;
+}

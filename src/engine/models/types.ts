@@ -1,0 +1,35 @@
+import type { MethodName } from "./methods";
+
+/** The normal forecast of one step on the transformed scale. */
+export interface StepMoments {
+  /** Steps ahead, 1-based. */
+  h: number;
+  /** μ_h. */
+  mean: number;
+  /** σ_h. */
+  sd: number;
+}
+
+/**
+ * A fitted model on the (already transformed) scale: immutable, fit once, evaluate many.
+ * `forecast(h)` gives per-step normal moments; `simulate(h, paths, seed)` gives sample paths
+ * (row-major, paths × h) from the model's own recursion with a seeded generator.
+ */
+export interface FittedModel {
+  readonly method: Exclude<MethodName, "auto">;
+  readonly title: string;
+  readonly n: number;
+  readonly period: number;
+  /** Estimated (or given) parameters by name: smoothing, damping, initial states. */
+  readonly params: Readonly<Record<string, number>>;
+  /** Residual standard deviation on the transformed scale. */
+  readonly sigma: number;
+  readonly loglik: number;
+  readonly aicc: number;
+  /** Parameters counted in the AICc (including σ²). */
+  readonly k: number;
+  /** One-step residuals. */
+  readonly residuals: readonly number[];
+  forecast(h: number): StepMoments[];
+  simulate(h: number, paths: number, seed: number): Float64Array;
+}
