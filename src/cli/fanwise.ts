@@ -1,16 +1,23 @@
 // The `fanwise` command line: CSV in → CSV (default) or JSON out; errors to stderr, exit 1.
 import * as fs from "fs";
 import * as path from "path";
-import { EngineError, fitLambda, isEngineError, cleanSeries, screenSeries, LambdaMethod } from "../engine";
+import { EngineError, fitLambda, isEngineError, cleanSeries, screenSeries, LambdaMethod, fitForecast, fanTable, totalForecast, Forecaster, Maybe } from "../engine";
 import { buildDemoWorkbook, demoForecastLogCsv, demoMonthlyCsv } from "../demo/quillmere";
+import { fanChartSvg } from "../taskpane/chart/fan-chart";
 import { csvSeries, parseCsv, toCsv, CsvSeries } from "./csv";
 
-const USAGE = `fanwise — Box-Cox checks and λ choice for positive business series (CSV in, CSV or JSON out)
+const USAGE = `fanwise — Box-Cox forecasts with honest means, medians and intervals (CSV in, CSV or JSON out)
 
 Usage:
   fanwise screen FILE [--period N] [--json]
   fanwise lambda FILE [--method guerrero|mle] [--period N] [--bounds -1,2] [--json]
+  fanwise fan    FILE --horizon H [--method M] [--lambda L] [--levels 80,95] [--period N] [--mean taylor|exact] [--json]
+  fanwise total  FILE --horizon H [--method M] [--lambda L] [--level 95] [--period N] [--seed S] [--paths P] [--json]
   fanwise demo   [--out DIR]
+
+Methods: mean, naive, seasonal-naive, drift, ses, holt, damped, seasonal-ses, holt-winters,
+damped-holt-winters, auto (default: lowest AICc among the smoothing models).
+Lambda: a number, auto (default), guerrero, mle, or none (no transform).
 
 FILE is a CSV whose first row names the columns; lines starting with # are comments; a column of
 labels (dates, periods) is skipped; every other column is a series; blank cells are gaps.
@@ -163,6 +170,152 @@ function lambdaCommand(argv: string[], io: Io): number {
   return 0;
 }
 
+function numberFlag(p: Parsed, name: string): number | undefined {
+  const v = p.flags.get(name);
+  if (v === undefined) return undefined;
+  const x = Number(v);
+  if (typeof v !== "string" || v.trim() === "" || !Number.isFinite(x)) throw new EngineError("input", `--${name} must be a number; got "${String(v)}".`);
+  return x;
+}
+
+function requireHorizon(p: Parsed): number {
+  if (!p.flags.has("horizon")) throw new EngineError("input", "--horizon is required: how many periods ahead to forecast, e.g. --horizon 12.");
+  return intFlag(p, "horizon", 1, 1);
+}
+
+/** Fits every series of the file; a series that cannot be fitted keeps its message. */
+function fitAll(p: Parsed, data: CsvSeries): { name: string; f?: Forecaster; error?: string }[] {
+  const period = intFlag(p, "period", 1, 1);
+  const method = p.flags.get("method");
+  const lambdaFlag = p.flags.get("lambda");
+  return data.series.map((cells, j) => {
+    const name = data.names[j];
+    try {
+      const lambda = lambdaFlag === undefined ? "auto" : String(lambdaFlag);
+      if (lambda.toLowerCase() !== "none") {
+        const screen = screenSeries(cells, { period, label: name, where: lineOf(data) });
+        if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
+      }
+      const first = cells.findIndex((c) => typeof c === "number");
+      const f = fitForecast(cells, { method: method === undefined ? "auto" : String(method), lambda, period, label: name });
+      void first;
+      return { name, f };
+    } catch (e) {
+      const msg = errorMessage(e);
+      return { name, error: msg.replace(/row (\d+)/, (_m, r) => `line ${data.lines[Number(r) - 1] ?? r}`) };
+    }
+  });
+}
+
+function val(m: Maybe): number | null {
+  return m.value;
+}
+
+function fanCommand(argv: string[], io: Io): number {
+  const p = parseArgs(argv, { horizon: "value", method: "value", lambda: "value", levels: "value", period: "value", mean: "value", json: "switch" });
+  const H = requireHorizon(p);
+  const mean = String(p.flags.get("mean") ?? "taylor").toLowerCase();
+  if (mean !== "taylor" && mean !== "exact") throw new EngineError("input", `--mean must be taylor or exact; got "${String(p.flags.get("mean"))}".`);
+  const levels = p.flags.has("levels") ? String(p.flags.get("levels")) : undefined;
+  const data = readSeriesFile(p);
+  const fits = fitAll(p, data);
+  const tables = fits.map((x) => {
+    if (!x.f) return { name: x.name, error: x.error as string };
+    try {
+      return { name: x.name, table: fanTable(x.f, H, { levels, mean: mean as "taylor" | "exact" }), f: x.f };
+    } catch (e) {
+      if (isEngineError(e) && e.code === "input" && /horizon|level/.test(e.message)) throw e; // the same for every series
+      return { name: x.name, error: errorMessage(e) };
+    }
+  });
+  const levelList = tables.find((t) => "table" in t && t.table)?.["table" as never] as unknown as { levels: number[] } | undefined;
+  if (p.flags.has("json")) {
+    const series: Record<string, unknown> = {};
+    for (const t of tables) {
+      if (!("table" in t) || !t.table) { series[t.name] = { error: t.error }; continue; }
+      const tb = t.table;
+      series[t.name] = {
+        method: tb.method,
+        lambda: tb.lambda,
+        sigma: tb.sigma,
+        meanMethod: tb.meanMethod,
+        steps: tb.rows.map((r) => ({
+          h: r.h,
+          mean: val(r.mean),
+          median: val(r.median),
+          intervals: Object.fromEntries(Object.entries(r.intervals).map(([k, v]) => [k, [val(v[0]), val(v[1])]])),
+          ...(cellNotes(r).length ? { notes: cellNotes(r) } : {}),
+        })),
+        notes: tb.notes,
+      };
+    }
+    io.out(JSON.stringify({ series }, null, 2) + "\n");
+  } else {
+    const lv = levelList ? levelList.levels : [80, 95];
+    const header = ["series", "h", "method", "lambda", "mean", "median", ...lv.flatMap((l) => [`low${l}`, `high${l}`]), "note"];
+    const rows: unknown[][] = [];
+    for (const t of tables) {
+      if (!("table" in t) || !t.table) { rows.push([t.name, "", "", "", "", "", ...lv.flatMap(() => ["", ""]), t.error]); continue; }
+      const tb = t.table;
+      tb.rows.forEach((r, i) => rows.push([
+        t.name, r.h, tb.method, tb.lambda === null ? "none" : tb.lambda, val(r.mean), val(r.median),
+        ...lv.flatMap((l) => [val(r.intervals[String(l)][0]), val(r.intervals[String(l)][1])]),
+        [i === 0 ? tb.notes.join(" ") : "", ...cellNotes(r)].filter(Boolean).join(" "),
+      ]));
+    }
+    io.out(toCsv(header, rows));
+  }
+  for (const t of tables) if (!("table" in t) || !t.table) io.err(`fanwise: ${t.name}: ${t.error}\n`);
+  return 0;
+}
+
+function cellNotes(r: { mean: Maybe; median: Maybe; intervals: Record<string, [Maybe, Maybe]> }): string[] {
+  const notes = [r.mean.note, r.median.note, ...Object.values(r.intervals).flatMap((v) => [v[0].note, v[1].note])].filter((x): x is string => !!x);
+  return Array.from(new Set(notes));
+}
+
+function totalCommand(argv: string[], io: Io): number {
+  const p = parseArgs(argv, { horizon: "value", method: "value", lambda: "value", level: "value", period: "value", seed: "value", paths: "value", mean: "value", json: "switch" });
+  const H = requireHorizon(p);
+  const level = numberFlag(p, "level") ?? 95;
+  const seed = p.flags.has("seed") ? intFlag(p, "seed", 1, 0) : 1;
+  const paths = p.flags.has("paths") ? intFlag(p, "paths", 10000, 100) : 10000;
+  const mean = String(p.flags.get("mean") ?? "taylor").toLowerCase();
+  if (mean !== "taylor" && mean !== "exact") throw new EngineError("input", `--mean must be taylor or exact; got "${String(p.flags.get("mean"))}".`);
+  const data = readSeriesFile(p);
+  const results = fitAll(p, data).map((x) => {
+    if (!x.f) return { name: x.name, error: x.error as string };
+    try {
+      return { name: x.name, method: x.f.method, lambda: x.f.lambda, t: totalForecast(x.f, H, { level, seed, paths, mean: mean as "taylor" | "exact" }) };
+    } catch (e) {
+      if (isEngineError(e) && e.code === "input" && /horizon|level|paths|seed/.test(e.message)) throw e;
+      return { name: x.name, error: errorMessage(e) };
+    }
+  });
+  if (p.flags.has("json")) {
+    const series: Record<string, unknown> = {};
+    for (const r of results) {
+      if (!("t" in r) || !r.t) { series[r.name] = { error: r.error }; continue; }
+      series[r.name] = {
+        method: r.method, lambda: r.lambda, horizon: r.t.horizon,
+        mean: r.t.mean.value, median: r.t.median, interval: r.t.interval, level: r.t.level,
+        paths: r.t.paths, seed: r.t.seed, simulatedMean: r.t.simulatedMean, monteCarloError: r.t.monteCarloError,
+        notes: [...(r.t.mean.note ? [r.t.mean.note] : []), ...r.t.notes],
+      };
+    }
+    io.out(JSON.stringify({ series }, null, 2) + "\n");
+  } else {
+    io.out(toCsv(
+      ["series", "horizon", "method", "lambda", "mean", "median", "low", "high", "level", "paths", "mc_std_error", "note"],
+      results.map((r) => (!("t" in r) || !r.t)
+        ? [r.name, H, "", "", "", "", "", "", level, "", "", r.error]
+        : [r.name, H, r.method, r.lambda === null ? "none" : r.lambda, r.t.mean.value, r.t.median, r.t.interval[0], r.t.interval[1], r.t.level, r.t.paths, r.t.monteCarloError, [r.t.mean.note, ...r.t.notes].filter(Boolean).join(" ")]),
+    ));
+  }
+  for (const r of results) if (!("t" in r) || !r.t) io.err(`fanwise: ${r.name}: ${r.error}\n`);
+  return 0;
+}
+
 function demoCommand(argv: string[], io: Io): number {
   const p = parseArgs(argv, { out: "value" });
   if (p.positional.length) throw new EngineError("input", `fanwise demo takes no file; got "${p.positional[0]}". Use --out DIR to choose where it writes.`);
@@ -176,9 +329,38 @@ function demoCommand(argv: string[], io: Io): number {
   const lines: string[] = [wb.title, wb.notice, ""];
   lines.push("Series check (Box-Cox needs values > 0; suggested λ by Guerrero's method, windows of 12 months):");
   for (const c of wb.columns) {
-    const r = screenSeries(c.values, { period: 12, label: c.name });
+    const r = screenSeries(c.values, { period: 12, label: c.name, where: (i) => wb.months[i] ?? `row ${i + 1}` });
     lines.push(`  ${c.name.padEnd(18)} n=${String(r.n).padStart(2)}  min=${String(r.min).padStart(6)}  ${r.boxCoxUsable ? "ready    " : "NOT READY"}  ${r.message}`);
   }
+  // The main job: next year's budget per shop, the mean (which adds up) against the median.
+  lines.push("");
+  lines.push("Next 12 months (Jan–Dec 2026), method auto, λ auto, period 12 — totals by shop:");
+  lines.push(`  ${"series".padEnd(18)} ${"method".padEnd(20)} ${"λ".padStart(6)} ${"mean total".padStart(11)} ${"Σ medians".padStart(11)} ${"gap".padStart(7)}  95% interval of the total`);
+  let chart: string | null = null;
+  for (const c of wb.columns) {
+    try {
+      const screen = screenSeries(c.values, { period: 12, label: c.name, where: (i) => wb.months[i] ?? `row ${i + 1}` });
+      if (!screen.boxCoxUsable) {
+        lines.push(`  ${c.name.padEnd(18)} skipped: ${screen.message}`);
+        continue;
+      }
+      const f = fitForecast(c.values, { period: 12, label: c.name });
+      const fan = fanTable(f, 12, { levels: [50, 80, 95] });
+      const t = totalForecast(f, 12, { level: 95, seed: 1 });
+      const sumMedian = fan.rows.reduce((s2, r) => s2 + (r.median.value ?? NaN), 0);
+      const mean = t.mean.value;
+      const gap = mean === null ? "" : `${(100 * (mean - sumMedian) / sumMedian).toFixed(1)}%`;
+      lines.push(`  ${c.name.padEnd(18)} ${f.method.padEnd(20)} ${(f.lambda === null ? "none" : f.lambda.toFixed(2)).padStart(6)} ${money(mean).padStart(11)} ${money(sumMedian).padStart(11)} ${gap.padStart(7)}  ${money(t.interval[0])} to ${money(t.interval[1])}`);
+      if (!chart) {
+        const history = (c.values.filter((v) => v !== null) as number[]).slice(-36);
+        const future = Array.from({ length: 12 }, (_, i) => `2026-${String(i + 1).padStart(2, "0")}`);
+        chart = fanChartSvg({ title: `${c.name}: monthly revenue and 12-month fan (invented data)`, history, labels: [...wb.months.slice(-36), ...future], fan, width: 640, height: 320 });
+      }
+    } catch (e) {
+      lines.push(`  ${c.name.padEnd(18)} ${errorMessage(e)}`);
+    }
+  }
+  lines.push("  (mean total = sum of the monthly bias-adjusted means; Σ medians = what back-transformed point forecasts add up to.)");
   let miss80 = 0;
   let miss95 = 0;
   for (const r of wb.forecastLog) {
@@ -189,9 +371,13 @@ function demoCommand(argv: string[], io: Io): number {
   lines.push("");
   lines.push(`Forecast log: ${n} past one-month-ahead forecasts for Harbour Street; the 80% intervals missed ${miss80} times (${Math.round((100 * miss80) / n)}%), the 95% intervals ${miss95} times (${Math.round((100 * miss95) / n)}%).`);
   lines.push("");
+  if (chart) {
+    fs.writeFileSync(path.join(dir, "quillmere-fan.svg"), chart);
+    lines.push(`Wrote ${path.join(dir, "quillmere-fan.svg")}`);
+  }
   lines.push(`Wrote ${monthly}`);
   lines.push(`Wrote ${log}`);
-  lines.push(`Next: fanwise screen ${monthly} --period 12    or    fanwise lambda ${monthly} --period 12`);
+  lines.push(`Next: fanwise fan ${monthly} --horizon 12 --period 12    (or screen, lambda, total)`);
   lines.push("");
   lines.push("Forecasts are estimates from past patterns; intervals assume the model holds. Check results before committing money, and follow your organisation's forecasting and audit policies.");
   const summary = lines.join("\n") + "\n";
@@ -210,6 +396,10 @@ function cleanSeriesAtLines(cells: CsvSeries["series"][number], data: CsvSeries,
   }
 }
 
+function money(x: number | null): string {
+  return x === null || !Number.isFinite(x) ? "n/a" : Math.round(x).toLocaleString("en-GB");
+}
+
 function round(x: number): number {
   return Number(x.toPrecision(6));
 }
@@ -226,6 +416,8 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
       case "screen": return screenCommand(rest, io);
       case "lambda": return lambdaCommand(rest, io);
       case "demo": return demoCommand(rest, io);
+      case "fan": return fanCommand(rest, io);
+      case "total": return totalCommand(rest, io);
       case undefined:
       case "help":
       case "--help":
@@ -233,7 +425,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         io.out(USAGE);
         return command === undefined ? 1 : 0;
       default:
-        io.err(`fanwise: unknown command "${command}". Commands: screen, lambda, demo (fanwise help for more).\n`);
+        io.err(`fanwise: unknown command "${command}". Commands: screen, lambda, fan, total, demo (fanwise help for more).\n`);
         return 1;
     }
   } catch (e) {

@@ -1,0 +1,85 @@
+// fanwise fan / total end to end: JSON against the engine and the fixtures, and the demo's
+// flagged series carrying their message instead of a forecast.
+import * as fs from "fs";
+import * as os from "os";
+import * as path from "path";
+import { runCli } from "../helpers/cli";
+import { check, datasetPath, expectClose } from "../helpers/reference";
+
+describe("fanwise fan", () => {
+  test("drift on log AirPassengers reproduces the numpy reference fan (bench.AirPassengers.log / backtransform.bench.*)", () => {
+    const r = runCli(["fan", datasetPath("AirPassengers"), "--horizon", "24", "--method", "drift", "--lambda", "0", "--json"]);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.out).series.value;
+    expect(s.method).toBe("drift");
+    expect(s.lambda).toBe(0);
+    const ref = check("backtransform.bench.AirPassengers.drift").expected;
+    s.steps.forEach((st: { h: number; mean: number; median: number; intervals: Record<string, [number, number]> }, i: number) => {
+      expect(st.h).toBe(i + 1);
+      expectClose(st.median, ref[i].median, { rtol: 1e-11 }, `median ${i + 1}`);
+      expectClose(st.mean, ref[i].mean_taylor, { rtol: 1e-11 }, `mean ${i + 1}`);
+      expectClose(st.intervals["95"][0], ref[i].quantiles["0.025"], { rtol: 1e-11 }, `low95 ${i + 1}`);
+      expectClose(st.intervals["80"][1], ref[i].quantiles["0.9"], { rtol: 1e-11 }, `high80 ${i + 1}`);
+    });
+  });
+  test("the demo workbook: a sensible table for every series, the flagged ones with their message instead", () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "fanwise-fan-"));
+    expect(runCli(["demo", "--out", dir]).code).toBe(0);
+    const csv = path.join(dir, "quillmere-monthly.csv");
+    const r = runCli(["fan", csv, "--horizon", "12", "--period", "12"]);
+    expect(r.code).toBe(0);
+    const lines = r.out.trim().split("\n");
+    expect(lines[0]).toBe("series,h,method,lambda,mean,median,low80,high80,low95,high95,note");
+    const bySeries = new Map<string, string[][]>();
+    for (const l of lines.slice(1)) {
+      const name = l.startsWith('"') ? l.slice(1, l.indexOf('"', 1)) : l.split(",")[0];
+      bySeries.set(name, [...(bySeries.get(name) ?? []), l.split(",")]);
+    }
+    for (const name of ["Harbour Street", "Millbrook", "Station Road", "Fenwick Green", "Larkfield", "Service hours"]) {
+      const rows = bySeries.get(name) ?? [];
+      expect(rows).toHaveLength(12);
+      for (const row of rows) {
+        const [mean, median, lo80, hi80, lo95, hi95] = row.slice(4, 10).map(Number);
+        expect(lo95).toBeLessThanOrEqual(lo80);
+        expect(lo80).toBeLessThanOrEqual(median);
+        expect(median).toBeLessThanOrEqual(hi80);
+        expect(hi80).toBeLessThanOrEqual(hi95);
+        expect(mean).toBeGreaterThan(lo80);
+        expect(mean).toBeLessThan(hi80);
+      }
+    }
+    expect(bySeries.get("Old Quay")?.[0].join(",")).toMatch(/Not Box-Cox ready: Old Quay has 1 zero/);
+    expect((bySeries.get("Parts costs (net)") ?? bySeries.get("Parts costs (net)"))).toBeDefined();
+    expect(r.err).toMatch(/Parts costs \(net\): Not Box-Cox ready/);
+    expect(fs.readFileSync(path.join(dir, "quillmere-fan.svg"), "utf8")).toMatch(/^<svg[\s\S]*mean[\s\S]*95% band[\s\S]*<\/svg>$/);
+  });
+  test("two runs print byte-identical output (determinism across processes)", () => {
+    const args = ["total", datasetPath("AirPassengers"), "--horizon", "12", "--period", "12", "--json"];
+    const a = runCli(args);
+    const b = runCli(args);
+    expect(a.code).toBe(0);
+    expect(a.out).toBe(b.out);
+  });
+  test("errors: a missing horizon, a bad level list, a misspelt method", () => {
+    expect(runCli(["fan", datasetPath("nile")]).err).toMatch(/--horizon is required/);
+    expect(runCli(["fan", datasetPath("nile"), "--horizon", "5", "--levels", "80,abc"]).err).toMatch(/"abc" is not a number/);
+    const m = runCli(["fan", datasetPath("nile"), "--horizon", "5", "--method", "hw", "--json"]);
+    expect(JSON.parse(m.out).series.value.error).toMatch(/Unknown method "hw". Use one of/);
+    expect(runCli(["fan", datasetPath("nile"), "--horizon", "0"]).code).toBe(1);
+  });
+});
+
+describe("fanwise total", () => {
+  test("mean = sum of per-step means; median and interval from seeded paths with a Monte Carlo error", () => {
+    const r = runCli(["total", datasetPath("AirPassengers"), "--horizon", "12", "--method", "holt-winters", "--lambda", "0", "--period", "12", "--json"]);
+    const t = JSON.parse(r.out).series.value;
+    const fan = JSON.parse(runCli(["fan", datasetPath("AirPassengers"), "--horizon", "12", "--method", "holt-winters", "--lambda", "0", "--period", "12", "--json"]).out).series.value;
+    const sum = fan.steps.reduce((s: number, st: { mean: number }) => s + st.mean, 0);
+    expectClose(t.mean, sum, { rtol: 1e-12 }, "sum of means");
+    expect(t.level).toBe(95);
+    expect(t.paths).toBe(10000);
+    expect(Math.abs(t.simulatedMean - t.mean)).toBeLessThan(5 * t.monteCarloError + 1e-3 * t.mean);
+    expect(t.interval[0]).toBeLessThan(t.median);
+    expect(t.interval[1]).toBeGreaterThan(t.median);
+  });
+});
