@@ -128,3 +128,51 @@ export function readMatrix(v: ExcelValue, name: string): RawCell[][] {
   const r = requireRange(v, name);
   return r.map((row, i) => row.map((c, j) => toRawCell(c, `${name} row ${i + 1}, column ${columnName(j)}`)));
 }
+
+/** An optional TRUE/FALSE argument (numbers 0/1 are accepted too). */
+export function optionalBoolean(v: ExcelValue, name: string, dflt: boolean): boolean {
+  if (v === null || v === undefined || v === "") return dflt;
+  if (typeof v === "boolean") return v;
+  if (v === 0 || v === 1) return v === 1;
+  throw new EngineError("input", `${name} must be TRUE or FALSE; got ${String(v)}.`);
+}
+
+/** λ for a forecast: a number, or "auto" / "guerrero" / "mle" / "none" (any case). Default "auto". */
+export function readLambda(v: ExcelValue): string | number {
+  if (v === null || v === undefined || v === "") return "auto";
+  let x = v;
+  if (Array.isArray(x) && x.length === 1 && Array.isArray(x[0]) && x[0].length === 1) x = x[0][0];
+  if (typeof x === "number") {
+    if (!Number.isFinite(x)) throw new EngineError("input", "lambda is not a finite number.");
+    return x;
+  }
+  if (typeof x === "string") return x;
+  if (isErrorValue(x)) throw new EngineError("input", `lambda holds the error ${errorCode(x)}.`);
+  throw new EngineError("input", `lambda must be a number or one of "auto", "guerrero", "mle", "none"; got ${String(x)}.`);
+}
+
+/** Interval levels: a cell, a range of numbers, or text like "80,95"; blank → the default. */
+export function readLevels(v: ExcelValue): number[] | string | undefined {
+  if (v === null || v === undefined || v === "") return undefined;
+  if (typeof v === "string") return v;
+  if (typeof v === "number") return [v];
+  if (Array.isArray(v)) {
+    const cells = (v as ExcelValue[][]).flat().filter((c) => c !== null && c !== "");
+    if (cells.length === 1 && typeof cells[0] === "string") return cells[0] as string;
+    return cells.map((c) => {
+      if (typeof c !== "number") throw new EngineError("input", `levels must be percentages like 80 and 95; got ${JSON.stringify(c)}.`);
+      return c;
+    });
+  }
+  throw new EngineError("input", 'levels must be percentages like 80 and 95, or text like "80,95".');
+}
+
+/** Probabilities from a cell or a range (blanks skipped); each must be a number. */
+export function readProbs(v: ExcelValue): number[] {
+  const cells = (Array.isArray(v) ? (v as ExcelValue[][]).flat() : [v]).filter((c) => c !== null && c !== "" && c !== undefined);
+  if (cells.length === 0) throw new EngineError("input", "probs must list at least one probability, e.g. 0.1 and 0.9.");
+  return cells.map((c) => {
+    if (typeof c !== "number") throw new EngineError("input", `probs must be numbers strictly between 0 and 1; got ${JSON.stringify(c)}.`);
+    return c;
+  });
+}

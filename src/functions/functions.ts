@@ -5,7 +5,9 @@ import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
-import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber } from "./coerce";
+import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, checkHorizon } from "../engine";
+import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs } from "./coerce";
+import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
 import { elementwise, finiteTable } from "./shape";
 
@@ -219,4 +221,156 @@ export function IMPLIEDLAMBDA(median: any[][], lower: any[][], upper: any[][]): 
     { name: "lower", cells: readMatrix(lower, "lower") },
     { name: "upper", cells: readMatrix(upper, "upper") },
   ], (a, b, c) => impliedLambda(a, b, c)));
+}
+
+async function guardAsync<T>(f: () => Promise<T>): Promise<T> {
+  try {
+    return await f();
+  } catch (e) {
+    throw toExcelError(e);
+  }
+}
+
+/** Lets Excel's shared runtime breathe between series, so a long multi-series call never freezes the pane. */
+function yieldToHost(): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
+function cell(m: Maybe): number | CustomFunctions.Error {
+  if (m.value !== null && Number.isFinite(m.value) && m.note === null) return m.value;
+  return naCell(m.note ?? "This value does not exist.");
+}
+
+interface SeriesArgs { method: string; lambda: string | number; period: number }
+
+function forecastArgs(method: unknown, lambda: unknown, period: unknown): SeriesArgs {
+  const m = optionalKeyword(method, "method", METHODS, "auto");
+  return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1) };
+}
+
+async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T): Promise<{ names: string[]; results: T[] }> {
+  const s = readSeries(values);
+  const results: T[] = [];
+  for (let j = 0; j < s.series.length; j++) {
+    if (j > 0) await yieldToHost();
+    try {
+      const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
+      results.push(f(fc, s.names[j]));
+    } catch (e) {
+      if (e instanceof EngineError && /^horizon|^levels|^each level|^probs|^each probability/.test(e.message)) throw e;
+      results.push(onError(toExcelError(e), s.names[j]));
+    }
+  }
+  return { names: s.names, results };
+}
+
+/**
+ * Forecast fan for each series, back on the original scale: step, mean (for budgets), median, and the low and high ends of each interval.
+ * @customfunction FAN
+ * @helpurl https://localhost:3000/README.html#fwfan
+ * @param {any[][]} values The history: one series per column (a header row of names is allowed), oldest first, positive numbers.
+ * @param {number} horizon How many periods ahead to forecast (a whole number, e.g. 12).
+ * @param {string} [method] "auto" (default: lowest AICc among the smoothing models), "naive", "drift", "seasonal-naive", "mean", "ses", "holt", "damped", "seasonal-ses", "holt-winters" or "damped-holt-winters".
+ * @param {any} [lambda] Box-Cox λ: a number (0 = log), "auto" (default), "guerrero", "mle" or "none".
+ * @param {any[][]} [levels] Interval levels in percent: a range of numbers or text like "80,95" (default 80 and 95).
+ * @param {number} [period] Season length: 12 for monthly, 4 for quarterly, 1 for none (default 1).
+ * @param {boolean} [header] TRUE adds a header row naming the columns (default FALSE: numbers only).
+ * @returns One row per step: step, then per series mean, median, low and high for each level.
+ */
+export async function FAN(values: any[][], horizon: number, method?: string, lambda?: any, levels?: any[][], period?: number, header?: boolean): Promise<any[][]> {
+  return guardAsync(async () => {
+    const args = forecastArgs(method, lambda, period);
+    const lv = parseLevels(readLevels(levels));
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const withHeader = optionalBoolean(header, "header", false);
+    const width = 2 + 2 * lv.length;
+    const { names, results } = await eachSeries(values, args, (fc) => {
+      const t = fanTable(fc, h, { levels: lv });
+      return t.rows.map((r) => [cell(r.mean), cell(r.median), ...lv.flatMap((l) => [cell(r.intervals[String(l)][0]), cell(r.intervals[String(l)][1])])]);
+    }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)));
+    const H = results[0].length;
+    const out: any[][] = [];
+    if (withHeader) {
+      out.push(["step", ...names.flatMap((n) => [`${n} mean`, `${n} median`, ...lv.flatMap((l) => [`${n} low ${l}%`, `${n} high ${l}%`])])]);
+    }
+    for (let i = 0; i < H; i++) out.push([i + 1, ...results.flatMap((r) => r[i] ?? new Array(width).fill(naCell("No value.")))]);
+    return finiteTable(out);
+  });
+}
+
+function checkHorizonSafe(h: number): number {
+  return Number.isInteger(h) && h > 0 ? h : 1;
+}
+
+/**
+ * Forecast quantiles on the original scale: one row per step, one column per probability (per series).
+ * @customfunction QUANTILES
+ * @helpurl https://localhost:3000/README.html#fwquantiles
+ * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
+ * @param {number} horizon How many periods ahead (a whole number).
+ * @param {any[][]} probs Probabilities strictly between 0 and 1, e.g. 0.1, 0.5, 0.9 (a cell or a row).
+ * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
+ * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {number} [period] Season length (default 1).
+ * @returns horizon rows × (probabilities × series) columns.
+ */
+export async function QUANTILES(values: any[][], horizon: number, probs: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+  return guardAsync(async () => {
+    const args = forecastArgs(method, lambda, period);
+    const ps = readProbs(probs);
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const { results } = await eachSeries(values, args, (fc) => quantileTable(fc, h, ps).map((row) => row.map(cell)),
+      (err) => Array.from({ length: Math.min(checkHorizonSafe(h), 1000) }, () => new Array(ps.length).fill(err)));
+    const H = results[0].length;
+    return finiteTable(Array.from({ length: H }, (_, i) => results.flatMap((r) => r[i])));
+  });
+}
+
+/**
+ * Forecast of the total over the next periods (e.g. a year's budget from monthly history): mean, median, and the interval's low and high ends.
+ * @customfunction TOTAL
+ * @helpurl https://localhost:3000/README.html#fwtotal
+ * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
+ * @param {number} horizon Number of periods to add up (e.g. 12 for a year of months).
+ * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
+ * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {number} [level] Interval level in percent (default 95).
+ * @param {number} [period] Season length (default 1).
+ * @param {number} [seed] Seed of the simulation, a whole number (default 1): the same seed gives the same answer on every recalculation.
+ * @returns One row per series: mean, median, low, high.
+ */
+export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number): Promise<any[][]> {
+  return guardAsync(async () => {
+    const args = forecastArgs(method, lambda, period);
+    const lv = optionalNumber(level, "level", 95);
+    checkLevelPercent(lv);
+    const sd = optionalInteger(seed, "seed", 1, 0);
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const { results } = await eachSeries(values, args, (fc) => {
+      const t = totalForecast(fc, h, { level: lv, seed: sd });
+      return [cell(t.mean), t.median, t.interval[0], t.interval[1] ?? naCell("The total's upper end is unbounded at this λ.")];
+    }, (err) => [err, err, err, err]);
+    return finiteTable(results);
+  });
+}
+
+/**
+ * Describes the fitted model: method, λ, parameters, σ, log-likelihood, AICc and n (a label column, then one column per series).
+ * @customfunction MODELINFO
+ * @helpurl https://localhost:3000/README.html#fwmodelinfo
+ * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
+ * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
+ * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {number} [period] Season length (default 1).
+ * @returns Two columns (label, value) for one series; one more value column per extra series.
+ */
+export async function MODELINFO(values: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+  return guardAsync(async () => {
+    const args = forecastArgs(method, lambda, period);
+    const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]]);
+    // Union of labels in first-seen order; a series without a label gets a blank.
+    const labels: string[] = [];
+    for (const r of results) for (const [k] of r) if (!labels.includes(k)) labels.push(k);
+    return finiteTable(labels.map((k) => [k, ...results.map((r) => { const hit = r.find(([kk]) => kk === k); return hit ? hit[1] : ""; })]));
+  });
 }

@@ -19,6 +19,10 @@ const expected: Record<string, [string, boolean][]> = {
   BTQUANTILE: [["mu", false], ["sd", false], ["lambda", false], ["p", false]],
   MEANFROMINTERVAL: [["median", false], ["lower", false], ["upper", false], ["level", false], ["lambda", true], ["method", true]],
   IMPLIEDLAMBDA: [["median", false], ["lower", false], ["upper", false]],
+  FAN: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["levels", true], ["period", true], ["header", true]],
+  QUANTILES: [["values", false], ["horizon", false], ["probs", false], ["method", true], ["lambda", true], ["period", true]],
+  TOTAL: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["seed", true]],
+  MODELINFO: [["values", false], ["method", true], ["lambda", true], ["period", true]],
 };
 
 test("functions.json was built (npm run build) and lists every FW function with its parameters", () => {
