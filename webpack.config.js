@@ -7,7 +7,22 @@ const HtmlWebpackPlugin = require("html-webpack-plugin");
 const CopyWebpackPlugin = require("copy-webpack-plugin");
 const CustomFunctionsMetadataPlugin = require("custom-functions-metadata-plugin");
 
+const { markdownToHtml } = require("./scripts/readme-html");
+
 const CERTS = path.join(__dirname, ".certs");
+
+/** Emits README.html (the functions' help pages) from README.md. */
+class ReadmeHtmlPlugin {
+  apply(compiler) {
+    compiler.hooks.thisCompilation.tap("ReadmeHtmlPlugin", (compilation) => {
+      compilation.hooks.processAssets.tap({ name: "ReadmeHtmlPlugin", stage: compiler.webpack.Compilation.PROCESS_ASSETS_STAGE_ADDITIONAL }, () => {
+        const md = fs.readFileSync(path.join(__dirname, "README.md"), "utf8");
+        compilation.fileDependencies.add(path.join(__dirname, "README.md"));
+        compilation.emitAsset("README.html", new compiler.webpack.sources.RawSource(markdownToHtml(md, "Fanwise — README")));
+      });
+    });
+  }
+}
 
 module.exports = (env, argv) => {
   const dev = argv.mode !== "production";
@@ -37,10 +52,11 @@ module.exports = (env, argv) => {
     },
     resolve: { extensions: [".ts", ".js"] },
     module: {
-      rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { configFile: "tsconfig.json", compilerOptions: { noEmit: false, sourceMap: true } } } }],
+      rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { configFile: "tsconfig.json", compilerOptions: { noEmit: false, sourceMap: true, module: "es2020" } } } }],
     },
     performance: { hints: false },
     plugins: [
+      new ReadmeHtmlPlugin(),
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./src/functions/functions.ts" }),
       new HtmlWebpackPlugin({
         filename: "taskpane.html",

@@ -41,3 +41,11 @@ test("functions.json was built (npm run build) and lists every FW function with 
   }
   expect(meta.functions.map((f) => f.id).sort()).toEqual(Object.keys(expected).sort());
 });
+
+test("every function's help link points at a section that exists in the built README.html", () => {
+  const meta = JSON.parse(fs.readFileSync(file, "utf8")) as { functions: Fn[] };
+  const html = fs.readFileSync(path.join(__dirname, "..", "..", "dist", "README.html"), "utf8");
+  const ids = new Set(Array.from(html.matchAll(/id="?([\w-]+)"?/g)).map((m) => m[1]));
+  const missing = meta.functions.filter((f) => !ids.has((f.helpUrl ?? "").split("#")[1] ?? "")).map((f) => f.id);
+  expect(missing).toEqual([]);
+});

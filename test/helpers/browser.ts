@@ -1,0 +1,56 @@
+// Headless Chromium (Debian's /usr/bin/chromium) driven by playwright-core, with every request
+// that leaves the loopback address aborted and recorded, and a tiny static server for test pages.
+import * as fs from "fs";
+import * as http from "http";
+import * as path from "path";
+import { AddressInfo } from "net";
+import { chromium, Browser, BrowserContext } from "playwright-core";
+
+export const CHROMIUM = "/usr/bin/chromium";
+export const CHROMIUM_FLAGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"];
+
+const ROOT = path.join(__dirname, "..", "..");
+
+const TYPES: Record<string, string> = { ".html": "text/html", ".js": "text/javascript", ".json": "application/json", ".css": "text/css", ".png": "image/png", ".svg": "image/svg+xml" };
+
+/** Serves files: `routes` maps a URL path to a file on disk, or to inline content. */
+export async function serve(routes: Record<string, string | { body: string; type: string }>): Promise<{ url: string; close: () => Promise<void> }> {
+  const server = http.createServer((req, res) => {
+    const p = (req.url ?? "/").split("?")[0];
+    const r = routes[p];
+    if (r === undefined) {
+      res.writeHead(404, { "content-type": "text/plain" });
+      res.end("not found");
+      return;
+    }
+    if (typeof r === "string") {
+      res.writeHead(200, { "content-type": TYPES[path.extname(r)] ?? "application/octet-stream" });
+      fs.createReadStream(r).pipe(res);
+    } else {
+      res.writeHead(200, { "content-type": r.type });
+      res.end(r.body);
+    }
+  });
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+  const port = (server.address() as AddressInfo).port;
+  return { url: `http://127.0.0.1:${port}`, close: () => new Promise((resolve) => server.close(() => resolve())) };
+}
+
+/** A browser context in which only 127.0.0.1 is reachable; `offSite` collects what was refused. */
+export async function isolatedBrowser(): Promise<{ browser: Browser; context: BrowserContext; offSite: string[] }> {
+  if (!fs.existsSync(CHROMIUM)) throw new Error(`${CHROMIUM} is missing: apt-get install -y chromium (the .ci/run script does)`);
+  const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_FLAGS });
+  const context = await browser.newContext({ viewport: { width: 320, height: 900 } });
+  const offSite: string[] = [];
+  await context.route("**/*", (route) => {
+    const u = route.request().url();
+    if (u.startsWith("http://127.0.0.1:") || u.startsWith("data:") || u.startsWith("blob:")) return route.continue();
+    offSite.push(u);
+    return route.abort();
+  });
+  return { browser, context, offSite };
+}
+
+export function fromRoot(...p: string[]): string {
+  return path.join(ROOT, ...p);
+}
