@@ -133,3 +133,21 @@ describe("work done once", () => {
     expect(cacheStats().size).toBeLessThanOrEqual(64);
   });
 });
+
+describe("argument shapes Excel passes", () => {
+  test("a single row is one series; a single cell is a one-value series", async () => {
+    const row = [[100, 110, 121, 133.1, 146.41]];
+    const byRow = await FW.FAN(row, 1, "drift", 0, N, N, N);
+    const byCol = await FW.FAN(row[0].map((v) => [v]), 1, "drift", 0, N, N, N);
+    expect(byRow).toEqual(byCol);
+    expect(FW.SCREEN([[7]])[0][0]).toBe(1);
+    expect(FW.BOXCOX(100 as never, 0)[0][0]).toBeCloseTo(Math.log(100), 15);
+  });
+  test("a header row names the series in FW.FAN's header and is not a value", async () => {
+    const out = await FW.FAN([["Shop A", "Shop B"], [1, 10], [2, 20], [3, 30], [4, 40]], 1, "naive", 0, N, N, true);
+    expect(out[0][1]).toBe("Shop A mean");
+    expect(out[0][7]).toBe("Shop B mean");
+    expect(out[1][2]).toBeCloseTo(4, 12);
+    expect(out[1][8]).toBeCloseTo(40, 12);
+  });
+});
