@@ -1,17 +1,14 @@
-// The only Excel.run code of the pane: read the selection as columns of raw cells.
+// The only Excel.run code of the pane: read the selection, write the FW.FAN formula and,
+// where the API allows, a native fan chart next to it.
 import { RawCell } from "../engine";
-
-/** The selected range as named columns. */
-export interface Selection {
-  address: string;
-  columns: { name: string; cells: RawCell[] }[];
-}
+import type { PaneData } from "./view-model";
 
 /**
- * Reads the selected range (values + valueTypes + address; ExcelApi 1.1). Each column is a series;
- * a first row of text names them. Error cells become text so the check counts them.
+ * Reads the selected range (address, values, valueTypes; ExcelApi 1.1) as named columns: each
+ * column is a series; a first row of text names them. Error cells become text, so the series
+ * check counts them instead of failing.
  */
-export async function readSelection(): Promise<Selection> {
+export async function readSelection(): Promise<PaneData> {
   return Excel.run(async (ctx) => {
     const range = ctx.workbook.getSelectedRange();
     range.load(["address", "values", "valueTypes"]);
@@ -28,10 +25,97 @@ export async function readSelection(): Promise<Selection> {
     const header = cells.length > 1 && cells[0].every((c) => c === null || typeof c === "string") && cells[0].some((c) => typeof c === "string");
     const body = header ? cells.slice(1) : cells;
     const width = cells[0]?.length ?? 0;
-    const columns = Array.from({ length: width }, (_, j) => ({
-      name: header && typeof cells[0][j] === "string" ? String(cells[0][j]) : `column ${j + 1}`,
-      cells: body.map((r) => r[j]),
-    }));
-    return { address: range.address, columns };
+    return {
+      source: `Selection ${range.address}`,
+      address: range.address,
+      names: Array.from({ length: width }, (_, j) => (header && typeof cells[0][j] === "string" ? String(cells[0][j]) : `column ${j + 1}`)),
+      columns: Array.from({ length: width }, (_, j) => body.map((r) => r[j])),
+      headerRows: header ? 1 : 0,
+    };
+  });
+}
+
+/** The address of one column of a range address ("Sheet1!B2:H74", column 2 → "Sheet1!D2:D74"). */
+export function columnAddress(address: string, column: number): string {
+  const m = /^(.*!)?\$?([A-Z]+)\$?(\d+)(?::\$?([A-Z]+)\$?(\d+))?$/.exec(address);
+  if (!m) return address;
+  const sheet = m[1] ?? "";
+  const toNum = (s: string): number => s.split("").reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
+  const toCol = (n: number): string => {
+    let s = "";
+    for (let k = n; k > 0; k = Math.floor((k - 1) / 26)) s = String.fromCharCode(65 + ((k - 1) % 26)) + s;
+    return s;
+  };
+  const col = toCol(toNum(m[2]) + column);
+  return `${sheet}${col}${m[3]}:${col}${m[5] ?? m[3]}`;
+}
+
+/** What writing to the sheet did. */
+export interface WriteResult { formulaAt: string; chart: boolean; note: string }
+
+/**
+ * Puts the FW.FAN formula at `target` (a cell address on the active sheet) so it recalculates with
+ * the data and, when asked and ExcelApi 1.7 is available, adds a native fan chart beside it:
+ * stacked areas over helper columns (the lowest, up to the 95% low end, left unfilled) with the
+ * mean and median as lines. Without 1.7 it writes the formula only and says why.
+ */
+export async function writeFan(target: string, formula: string, horizon: number, levels: number[], withChart: boolean): Promise<WriteResult> {
+  return Excel.run(async (ctx) => {
+    const sheet = ctx.workbook.worksheets.getActiveWorksheet();
+    const cell = sheet.getRange(target);
+    cell.formulas = [[formula]];
+    cell.load("address");
+    await ctx.sync();
+    const result: WriteResult = { formulaAt: cell.address, chart: false, note: "Formula written." };
+    if (!withChart) return result;
+    if (!Office.context.requirements.isSetSupported("ExcelApi", "1.7")) {
+      result.note = "Formula written. This Excel does not offer the chart features the fan needs (ExcelApi 1.7), so no chart was added.";
+      return result;
+    }
+    // The fan occupies horizon rows × (1 + 2 + 2·levels) columns from the target cell.
+    const lv = levels.slice().sort((a, b) => a - b);
+    const width = 3 + 2 * lv.length;
+    // Helper columns start one column after the fan; helper column h refers to fan column k as
+    // RC[k − (width + 1 + h)] in R1C1 notation, so the block recalculates with the fan.
+    const lowOf = (i: number): number => 3 + 2 * i; // fan columns: 0 step, 1 mean, 2 median, then low/high per level
+    const highOf = (i: number): number => 4 + 2 * i;
+    const outer = lv.length - 1;
+    const terms: [number, number | null][] = [[lowOf(outer), null]]; // [plus, minus]
+    for (let i = outer; i > 0; i--) terms.push([lowOf(i - 1), lowOf(i)]);
+    terms.push([highOf(0), lowOf(0)]);
+    for (let i = 1; i <= outer; i++) terms.push([highOf(i), highOf(i - 1)]);
+    const ref = (k: number, h: number): string => `RC[${k - (width + 1 + h)}]`;
+    const row = terms.map(([plus, minus], h) => (minus === null ? `=${ref(plus, h)}` : `=${ref(plus, h)}-${ref(minus, h)}`));
+    const helper = cell.getOffsetRange(0, width + 1).getResizedRange(horizon - 1, terms.length - 1);
+    helper.formulasR1C1 = Array.from({ length: horizon }, () => row);
+    const chart = sheet.charts.add(Excel.ChartType.areaStacked, helper, Excel.ChartSeriesBy.columns);
+    chart.title.text = "Fanwise fan";
+    await ctx.sync();
+    const series = chart.series;
+    series.load("items");
+    await ctx.sync();
+    const colour = (i: number): string => {
+      const l = i === 0 ? null : i <= outer ? lv[outer - i + 1] : lv[i - outer - 1];
+      return l === null ? "" : l >= 95 ? "#f4e3bf" : l >= 80 ? "#e9c27a" : "#d4973a";
+    };
+    series.items.forEach((s, i) => {
+      if (i === 0) s.format.fill.clear();
+      else s.format.fill.setSolidColor(colour(i));
+    });
+    const mean = chart.series.add("mean");
+    mean.setValues(cell.getOffsetRange(0, 1).getResizedRange(horizon - 1, 0));
+    mean.chartType = Excel.ChartType.line;
+    mean.format.line.color = "#5a2d82";
+    mean.format.line.weight = 2;
+    const median = chart.series.add("median");
+    median.setValues(cell.getOffsetRange(0, 2).getResizedRange(horizon - 1, 0));
+    median.chartType = Excel.ChartType.lineMarkers;
+    median.markerStyle = Excel.ChartMarkerStyle.diamond;
+    median.format.line.color = "#5a2d82";
+    median.format.line.weight = 1;
+    await ctx.sync();
+    result.chart = true;
+    result.note = "Formula and chart written.";
+    return result;
   });
 }

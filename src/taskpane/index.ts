@@ -1,9 +1,34 @@
-// Pane bootstrap (an entry file: side effects allowed here). Inside Excel it checks the selected
-// range; outside Office it runs on the invented demo workbook.
-import { RawCell } from "../engine";
+// Pane bootstrap (an entry file: side effects allowed here). Inside Excel it follows the selected
+// range; outside Office it runs on the invented demo workbook and offers a paste box.
+import { RawCell, parseLevels } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
-import { checkRows, CheckRow } from "./view-model";
-import { readSelection } from "./excel-io";
+import { checkRows, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData } from "./view-model";
+import { pastedData } from "./paste";
+import { columnAddress, readSelection, writeFan } from "./excel-io";
+
+const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
+
+interface State {
+  data: PaneData;
+  series: number;
+  inExcel: boolean;
+  lastView: FanView | null;
+  lastRenderMs: number;
+  renders: number;
+}
+
+const state: State = { data: demoData(), series: 0, inExcel: false, lastView: null, lastRenderMs: 0, renders: 0 };
+
+function demoData(): PaneData {
+  const wb = buildDemoWorkbook();
+  return {
+    source: `Not running inside Excel: showing the demo workbook. ${DEMO_NOTICE}`,
+    names: wb.columns.map((c) => c.name),
+    columns: wb.columns.map((c) => c.values as RawCell[]),
+    rowLabels: wb.months,
+    headerRows: 1,
+  };
+}
 
 function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, cls?: string): HTMLElementTagNameMap[K] {
   const e = document.createElement(tag);
@@ -12,14 +37,23 @@ function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, cls?: 
   return e;
 }
 
+function controls(): FanControls {
+  const mode = $<HTMLSelectElement>("fw-lambda-mode").value;
+  return {
+    series: state.series,
+    method: $<HTMLSelectElement>("fw-method").value,
+    lambda: mode === "typed" ? $<HTMLInputElement>("fw-lambda-value").value : mode,
+    horizon: Number($<HTMLInputElement>("fw-horizon").value),
+    period: Number($<HTMLInputElement>("fw-period").value),
+    levels: $<HTMLInputElement>("fw-levels").value,
+  };
+}
+
 function renderCheck(rows: CheckRow[]): void {
-  const host = document.getElementById("fw-check");
-  if (!host) return;
+  const host = $("fw-check");
   host.replaceChildren();
   const table = el("table", undefined, "fw-table");
-  const cap = el("caption", "One row per series: Box-Cox needs every value above zero.");
-  cap.className = "fw-note";
-  table.appendChild(cap);
+  table.appendChild(el("caption", "One row per series. Box-Cox needs every value above zero; choose a series to preview its fan."));
   const head = el("tr");
   for (const h of ["Series", "n", "Min", "Suggested λ"]) {
     const th = el("th", h);
@@ -28,57 +62,285 @@ function renderCheck(rows: CheckRow[]): void {
   }
   table.appendChild(el("thead")).appendChild(head);
   const body = el("tbody");
-  for (const r of rows) {
+  rows.forEach((r, j) => {
     const tr = el("tr");
     const name = el("td");
-    name.appendChild(el("span", r.name));
+    const b = el("button", r.name, "fw-series-button");
+    b.type = "button";
+    b.setAttribute("aria-pressed", String(j === state.series));
+    b.setAttribute("aria-label", `Preview the fan of ${r.name}`);
+    b.addEventListener("click", () => selectSeries(j));
+    name.appendChild(b);
     name.appendChild(document.createElement("br"));
-    name.appendChild(r.badge ? el("span", r.badge, "fw-badge") : el("span", r.ready ? "ready" : "check", "fw-ok"));
-    if (!r.ready || r.badge) name.appendChild(el("span", r.reason, "fw-reason"));
+    if (r.badge) {
+      const badge = el("span", r.badge, "fw-badge");
+      badge.dataset.badge = r.badge;
+      name.appendChild(badge);
+      name.appendChild(el("span", r.reason, "fw-reason"));
+    } else name.appendChild(el("span", "ready", "fw-ok"));
+    tr.dataset.series = r.name;
     tr.appendChild(name);
     tr.appendChild(el("td", String(r.n), "num"));
     tr.appendChild(el("td", r.min, "num"));
     tr.appendChild(el("td", r.lambda, "num"));
     body.appendChild(tr);
-  }
+  });
   table.appendChild(body);
   host.appendChild(table);
 }
 
-function setSource(text: string): void {
-  const p = document.getElementById("fw-source");
-  if (p) p.textContent = text;
+function renderSeriesSelect(): void {
+  const sel = $<HTMLSelectElement>("fw-series");
+  sel.replaceChildren(...state.data.names.map((n, j) => {
+    const o = el("option", n);
+    o.value = String(j);
+    return o;
+  }));
+  sel.value = String(state.series);
+}
+
+function fmtCell(v: number | null): string {
+  return v === null ? "n/a" : Math.abs(v) >= 1000 ? Math.round(v).toLocaleString("en-GB") : String(Number(v.toPrecision(4)));
+}
+
+function renderFan(): void {
+  const t0 = performance.now();
+  const c = controls();
+  const view = fanView(state.data, c);
+  state.lastView = view;
+  const chart = $("fw-chart");
+  const error = $("fw-error");
+  const readout = $("fw-readout");
+  const table = $("fw-table");
+  if (!view.ok) {
+    chart.replaceChildren();
+    readout.replaceChildren();
+    table.replaceChildren();
+    error.hidden = false;
+    error.textContent = view.message;
+    $("fw-gap").textContent = "";
+    $("fw-notes").textContent = "";
+  } else {
+    error.hidden = true;
+    // The SVG is generated by our own code from numbers (labels escaped), so parsing it is safe.
+    const doc = new DOMParser().parseFromString(view.svg, "image/svg+xml");
+    chart.replaceChildren(document.importNode(doc.documentElement, true));
+    readout.replaceChildren();
+    for (const [k, v] of [["method", view.readout.method], ["λ", view.readout.lambda], ["σ", view.readout.sigma], ["AICc", view.readout.aicc]]) {
+      readout.appendChild(el("dt", k));
+      readout.appendChild(el("dd", v));
+    }
+    $("fw-gap").textContent = view.gap;
+    $("fw-notes").textContent = view.notes.join(" ");
+    renderTable(view);
+    updateSlider(view.lambdaRange);
+    if (state.inExcel && state.data.address) {
+      $("fw-formula").textContent = fanFormula(columnAddress(state.data.address, c.series), { ...c, levels: c.levels });
+    }
+  }
+  state.lastRenderMs = performance.now() - t0;
+  state.renders++;
+}
+
+function renderTable(view: Extract<FanView, { ok: true }>): void {
+  const host = $("fw-table");
+  const t = el("table", undefined, "fw-table");
+  t.appendChild(el("caption", "The fan as numbers (original scale)."));
+  const levels = view.fan.levels;
+  const head = el("tr");
+  for (const h of ["step", "mean", "median", ...levels.flatMap((l) => [`low ${l}%`, `high ${l}%`])]) {
+    const th = el("th", h);
+    th.scope = "col";
+    head.appendChild(th);
+  }
+  t.appendChild(el("thead")).appendChild(head);
+  const body = el("tbody");
+  for (const r of view.fan.rows) {
+    const tr = el("tr");
+    tr.appendChild(el("td", String(r.h), "num"));
+    tr.appendChild(el("td", fmtCell(r.mean.value), "num"));
+    tr.appendChild(el("td", fmtCell(r.median.value), "num"));
+    for (const l of levels) {
+      tr.appendChild(el("td", fmtCell(r.intervals[String(l)][0].value), "num"));
+      tr.appendChild(el("td", fmtCell(r.intervals[String(l)][1].value), "num"));
+    }
+    body.appendChild(tr);
+  }
+  t.appendChild(body);
+  host.replaceChildren(t);
+}
+
+function updateSlider(range: [number, number] | null): void {
+  const slider = $<HTMLInputElement>("fw-lambda-slider");
+  const lo = range ? Math.max(-5, range[0]) : -1;
+  const hi = range ? Math.min(5, range[1]) : 2;
+  slider.min = lo.toFixed(2);
+  slider.max = hi.toFixed(2);
+}
+
+function showLambdaTyped(): void {
+  const typed = $<HTMLSelectElement>("fw-lambda-mode").value === "typed";
+  document.querySelectorAll<HTMLElement>(".fw-lambda-typed").forEach((e) => e.classList.toggle("fw-hidden", !typed));
+}
+
+function renderAll(): void {
+  const t0 = performance.now();
+  const period = Number($<HTMLInputElement>("fw-period").value) || 1;
+  $("fw-source").textContent = state.data.source;
+  try {
+    renderCheck(checkRows(state.data, Number.isInteger(period) && period >= 1 ? period : 1));
+  } catch (e) {
+    $("fw-check").textContent = e instanceof Error ? e.message : String(e);
+  }
+  renderSeriesSelect();
+  renderFan();
+  state.lastRenderMs = performance.now() - t0;
+}
+
+function selectSeries(j: number): void {
+  state.series = j;
+  document.querySelectorAll<HTMLButtonElement>(".fw-series-button").forEach((b, k) => b.setAttribute("aria-pressed", String(k === j)));
+  $<HTMLSelectElement>("fw-series").value = String(j);
+  renderFan();
+}
+
+let timer: ReturnType<typeof setTimeout> | undefined;
+function later(f: () => void, ms = 150): void {
+  if (timer) clearTimeout(timer);
+  timer = setTimeout(f, ms);
+}
+
+function download(name: string, blob: Blob): void {
+  const a = el("a");
+  a.href = URL.createObjectURL(blob);
+  a.download = name;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+}
+
+function exportSvg(): void {
+  if (state.lastView?.ok) download("fanwise-fan.svg", new Blob([state.lastView.svg], { type: "image/svg+xml" }));
+}
+
+function exportPng(): void {
+  const v = state.lastView;
+  if (!v?.ok) return;
+  const img = new Image();
+  const url = URL.createObjectURL(new Blob([v.svg], { type: "image/svg+xml" }));
+  img.onload = () => {
+    const scale = 2;
+    const canvas = el("canvas");
+    canvas.width = img.width * scale;
+    canvas.height = img.height * scale;
+    const ctx = canvas.getContext("2d");
+    if (!ctx) return;
+    ctx.scale(scale, scale);
+    ctx.drawImage(img, 0, 0);
+    URL.revokeObjectURL(url);
+    canvas.toBlob((b) => b && download("fanwise-fan.png", b), "image/png");
+  };
+  img.src = url;
+}
+
+function wire(): void {
+  $("fw-series").addEventListener("change", (e) => selectSeries(Number((e.target as HTMLSelectElement).value)));
+  $("fw-method").addEventListener("change", renderFan);
+  $("fw-lambda-mode").addEventListener("change", () => { showLambdaTyped(); renderFan(); });
+  $("fw-lambda-value").addEventListener("input", () => {
+    $<HTMLInputElement>("fw-lambda-slider").value = $<HTMLInputElement>("fw-lambda-value").value;
+    later(renderFan);
+  });
+  $("fw-lambda-slider").addEventListener("input", () => {
+    $<HTMLInputElement>("fw-lambda-value").value = $<HTMLInputElement>("fw-lambda-slider").value;
+    later(renderFan, 60);
+  });
+  $("fw-horizon").addEventListener("input", () => later(renderFan));
+  $("fw-levels").addEventListener("input", () => later(renderFan, 300));
+  $("fw-period").addEventListener("input", () => later(renderAll));
+  $("fw-controls").addEventListener("submit", (e) => e.preventDefault());
+  $("fw-export-svg").addEventListener("click", exportSvg);
+  $("fw-export-png").addEventListener("click", exportPng);
+  $("fw-paste-go").addEventListener("click", () => {
+    const msg = $("fw-paste-msg");
+    try {
+      state.data = pastedData($<HTMLTextAreaElement>("fw-paste").value);
+      state.series = 0;
+      msg.textContent = `Using the pasted table: ${state.data.names.length} series.`;
+      renderAll();
+    } catch (e) {
+      msg.textContent = e instanceof Error ? e.message : String(e);
+    }
+  });
+  $("fw-demo-go").addEventListener("click", () => {
+    state.data = demoData();
+    state.series = 0;
+    $("fw-paste-msg").textContent = "";
+    renderAll();
+  });
+  $("fw-write-go").addEventListener("click", () => void writeToSheet());
+  showLambdaTyped();
+}
+
+async function writeToSheet(): Promise<void> {
+  const msg = $("fw-write-msg");
+  const c = controls();
+  if (!state.data.address) {
+    msg.textContent = "Select the data range first.";
+    return;
+  }
+  try {
+    const formula = fanFormula(columnAddress(state.data.address, c.series), c);
+    const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked);
+    msg.textContent = `${r.note} (${r.formulaAt})`;
+  } catch (e) {
+    msg.textContent = `Could not write to the sheet: ${e instanceof Error ? e.message : String(e)}`;
+  }
 }
 
 function standalone(): void {
-  const wb = buildDemoWorkbook();
-  setSource(`Not running inside Excel: showing the demo workbook. ${DEMO_NOTICE}`);
-  renderCheck(checkRows(wb.columns.map((c) => ({ name: c.name, cells: c.values as RawCell[] })), 12, wb.months));
+  state.inExcel = false;
+  $("fw-paste-box").hidden = false;
+  state.data = demoData();
+  renderAll();
 }
 
 async function inExcel(): Promise<void> {
-  setSource("Select the series (one per column, names in the first row) and the check follows the selection.");
+  state.inExcel = true;
+  $("fw-write").hidden = false;
   const refresh = async (): Promise<void> => {
     try {
-      const sel = await readSelection();
-      setSource(`Selection ${sel.address}`);
-      renderCheck(checkRows(sel.columns, 12));
+      state.data = await readSelection();
+      if (state.series >= state.data.columns.length) state.series = 0;
+      renderAll();
     } catch (e) {
-      setSource(e instanceof Error ? e.message : String(e));
+      $("fw-source").textContent = e instanceof Error ? e.message : String(e);
     }
   };
   await refresh();
-  let timer: ReturnType<typeof setTimeout> | undefined;
   await Excel.run(async (ctx) => {
-    ctx.workbook.onSelectionChanged.add(async () => {
-      if (timer) clearTimeout(timer);
-      timer = setTimeout(() => void refresh(), 300);
-    });
+    ctx.workbook.onSelectionChanged.add(async () => later(() => void refresh(), 300));
     await ctx.sync();
   });
 }
 
+/** For tests and the in-browser benchmark: set data, re-render, and read the last render time. */
+(globalThis as unknown as { fanwisePane: unknown }).fanwisePane = {
+  setData(names: string[], columns: RawCell[][]): void {
+    state.data = { source: "Benchmark data", names, columns, headerRows: 1 };
+    state.series = 0;
+    renderAll();
+  },
+  renderAll,
+  renderFan,
+  get lastRenderMs(): number { return state.lastRenderMs; },
+  get lastFan(): unknown { return state.lastView && state.lastView.ok ? state.lastView.fan : null; },
+  get renders(): number { return state.renders; },
+};
+
 function start(): void {
+  wire();
   if (typeof Office === "undefined") {
     standalone();
     return;

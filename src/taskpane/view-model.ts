@@ -1,5 +1,21 @@
-// Pure view model for the pane's series check: raw columns in, rows to render out. No DOM, no Office.
-import { RawCell, screenSeries } from "../engine";
+// The pane's view model: raw columns and control values in, everything the pane shows out.
+// Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
+import { describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster } from "../engine";
+import { fanChartSvg } from "./chart/fan-chart";
+
+/** The data the pane works on: named columns of raw cells. */
+export interface PaneData {
+  /** Where the data came from, in words ("Selection Sheet1!B2:H74", "Demo workbook"). */
+  source: string;
+  names: string[];
+  columns: RawCell[][];
+  /** Labels of the rows (periods), when known. */
+  rowLabels?: string[];
+  /** The range address (in Excel), for the formula the pane writes. */
+  address?: string;
+  /** 1 when the first row of the range was a header. */
+  headerRows: number;
+}
 
 /** One row of the series-check table. */
 export interface CheckRow {
@@ -8,38 +24,154 @@ export interface CheckRow {
   min: string;
   blanks: number;
   lambda: string;
+  lambdaInterval: [number, number] | null;
   ready: boolean;
+  /** "not Box-Cox ready" (minimum ≤ 0), "too short", "gaps", or null. */
   badge: string | null;
   reason: string;
 }
 
 function fmt(x: number | null): string {
-  if (x === null) return "–";
+  if (x === null || !Number.isFinite(x)) return "–";
   return Math.abs(x) >= 1000 ? Math.round(x).toLocaleString("en-GB") : String(Number(x.toPrecision(4)));
 }
 
 /**
- * Screens each column and shapes the result for the table; a series whose minimum is ≤ 0 gets
- * the "not Box-Cox ready" badge with the reason and the fix.
- * @example checkRows([{ name: "A", cells: [1, 0, 2, 3] }], 1)[0].badge // "not Box-Cox ready"
+ * Screens each column and shapes the result for the table. A series whose minimum is ≤ 0 gets the
+ * "not Box-Cox ready" badge with the reason and the fix; too-short series and interior gaps are
+ * flagged too.
+ * @example checkRows({ source: "x", names: ["A"], columns: [[1, 0, 2, 3]], headerRows: 0 }, 1)[0].badge // "not Box-Cox ready"
  */
-export function checkRows(columns: { name: string; cells: RawCell[] }[], period: number, rowLabels?: string[]): CheckRow[] {
-  const where = rowLabels ? (i: number): string => rowLabels[i] ?? `row ${i + 1}` : (i: number): string => `row ${i + 1}`;
-  return columns.map(({ name, cells }) => {
+export function checkRows(data: PaneData, period: number): CheckRow[] {
+  const where = (i: number): string => data.rowLabels?.[i] ?? `row ${i + 1 + data.headerRows}`;
+  return data.columns.map((cells, j) => {
+    const name = data.names[j];
     const r = screenSeries(cells, { period, label: name, where });
-    const interval = r.lambda ? r.lambda.interval : null;
-    const lambda = r.suggestedLambda === null ? "–" : interval && interval[0] !== null && interval[1] !== null
-      ? `${fmt(r.suggestedLambda)} (${interval[0].toFixed(2)} to ${interval[1].toFixed(2)})`
-      : fmt(r.suggestedLambda);
-    return {
-      name,
-      n: r.n,
-      min: fmt(r.min),
-      blanks: r.blanks,
-      lambda,
-      ready: r.boxCoxUsable,
-      badge: r.nonPositive > 0 ? "not Box-Cox ready" : r.fix === "too-short" || r.fix === "no-numbers" ? "too short" : null,
-      reason: r.message,
-    };
+    const iv = r.lambda ? r.lambda.interval : null;
+    const interval: [number, number] | null = iv && iv[0] !== null && iv[1] !== null ? [iv[0], iv[1]] : null;
+    const lambda = r.suggestedLambda === null ? "–" : interval ? `${fmt(r.suggestedLambda)} (${interval[0].toFixed(2)} to ${interval[1].toFixed(2)})` : fmt(r.suggestedLambda);
+    let badge: string | null = null;
+    if (r.nonPositive > 0) badge = "not Box-Cox ready";
+    else if (r.fix === "too-short" || r.fix === "no-numbers") badge = "too short";
+    else if (r.interiorGaps.length) badge = "gaps";
+    return { name, n: r.n, min: fmt(r.min), blanks: r.blanks, lambda, lambdaInterval: interval, ready: r.boxCoxUsable && r.fix === "none", badge, reason: r.message };
   });
+}
+
+/** The fan preview's controls. */
+export interface FanControls {
+  series: number;
+  method: string;
+  /** "auto", "guerrero", "mle", "none", or a number as text. */
+  lambda: string;
+  horizon: number;
+  period: number;
+  /** Levels in percent, as text ("50,80,95"). */
+  levels: string;
+}
+
+/** What the fan preview shows. */
+export type FanView =
+  | {
+      ok: true;
+      svg: string;
+      fan: FanTable;
+      /** Readout: method, λ, σ, AICc. */
+      readout: { method: string; lambda: string; sigma: string; aicc: string };
+      /** The mean-vs-median gap at the last step, in plain words. */
+      gap: string;
+      notes: string[];
+      /** Likelihood interval of λ for the slider (null when the series is not transformed or has none). */
+      lambdaRange: [number, number] | null;
+      forecaster: Forecaster;
+    }
+  | { ok: false; message: string };
+
+function lambdaOption(text: string): string | number {
+  const t = text.trim().toLowerCase();
+  if (t === "" || t === "auto") return "auto";
+  if (t === "guerrero" || t === "mle" || t === "none") return t;
+  const v = Number(t);
+  return Number.isFinite(v) ? v : text;
+}
+
+/**
+ * The mean-vs-median gap at the last step in words a budget owner reads.
+ * @example gapSentence(fan) // "At step 12 the mean is 1.3% (2,310) above the median: …"
+ */
+export function gapSentence(fan: FanTable): string {
+  const last = fan.rows[fan.rows.length - 1];
+  const mean = last.mean.value;
+  const median = last.median.value;
+  if (mean === null || median === null || median === 0) return last.mean.note ?? "The mean is not available at the last step.";
+  const d = mean - median;
+  const pct = (100 * d) / median;
+  if (Math.abs(pct) < 0.05) return `At step ${last.h} the mean and the median agree to within 0.05%: the transform barely bends this forecast.`;
+  const side = d > 0 ? "above" : "below";
+  const lesson = d > 0
+    ? "budgeting on the back-transformed point forecast (the median) would understate it."
+    : "budgeting on the median would overstate it.";
+  return `At step ${last.h} the mean is ${Math.abs(pct).toFixed(1)}% (${fmt(Math.abs(d))}) ${side} the median: ${lesson}`;
+}
+
+/**
+ * Fits the chosen series with the controls and lays out the fan (chart SVG, readout, gap), or says
+ * why it cannot.
+ * @example fanView(data, { series: 0, method: "auto", lambda: "auto", horizon: 12, period: 12, levels: "50,80,95" }).ok
+ */
+export function fanView(data: PaneData, c: FanControls): FanView {
+  try {
+    const cells = data.columns[c.series];
+    if (!cells) return { ok: false, message: "Choose a series." };
+    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows });
+    const fan = fanTable(f, c.horizon, { levels: c.levels });
+    const history: number[] = [];
+    const labels: string[] = [];
+    cells.forEach((v, i) => {
+      if (typeof v === "number") {
+        history.push(v);
+        labels.push(data.rowLabels?.[i] ?? String(i + 1));
+      }
+    });
+    const shown = Math.min(history.length, Math.max(24, 3 * c.horizon));
+    const hist = history.slice(-shown);
+    const lab = [...labels.slice(-shown), ...fan.rows.map((r) => `+${r.h}`)];
+    const svg = fanChartSvg({ title: `${data.names[c.series]}: ${f.method}, λ ${f.lambda === null ? "none" : f.lambda.toFixed(2)}`, history: hist, labels: lab, fan, width: 300, height: 220 });
+    const info = new Map(describeForecaster(f));
+    const aicc = info.get("AICc");
+    const lc = f.lambdaChoice;
+    const range: [number, number] | null = lc && lc.interval[0] !== null && lc.interval[1] !== null ? [lc.interval[0], lc.interval[1]] : null;
+    return {
+      ok: true,
+      svg,
+      fan,
+      readout: {
+        method: f.method,
+        lambda: f.lambda === null ? "none" : `${f.lambda.toFixed(3)} (${f.lambdaSource})`,
+        sigma: f.model ? f.model.sigma.toPrecision(3) : "0",
+        aicc: typeof aicc === "number" ? aicc.toFixed(1) : String(aicc ?? "–"),
+      },
+      gap: gapSentence(fan),
+      notes: f.notes.slice(),
+      lambdaRange: range,
+      forecaster: f,
+    };
+  } catch (e) {
+    if (isEngineError(e)) return { ok: false, message: e.message };
+    return { ok: false, message: `Fanwise could not draw this fan (${e instanceof Error ? e.message : String(e)}).` };
+  }
+}
+
+function quote(s: string): string {
+  return `"${s.replace(/"/g, '""')}"`;
+}
+
+/**
+ * The `=FW.FAN(...)` formula matching the controls, for a series at `address` (so the sheet
+ * recalculates with the data).
+ * @example fanFormula("Sheet1!B2:B74", { series: 0, method: "auto", lambda: "auto", horizon: 12, period: 12, levels: "80,95" }) // '=FW.FAN(Sheet1!B2:B74,12,"auto","auto","80,95",12)'
+ */
+export function fanFormula(address: string, c: FanControls): string {
+  const l = lambdaOption(c.lambda);
+  return `=FW.FAN(${address},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
 }

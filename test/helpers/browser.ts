@@ -54,3 +54,45 @@ export async function isolatedBrowser(): Promise<{ browser: Browser; context: Br
 export function fromRoot(...p: string[]): string {
   return path.join(ROOT, ...p);
 }
+
+/** Serves the built add-in (dist/) on 127.0.0.1. */
+export async function serveDist(): Promise<{ url: string; close: () => Promise<void> }> {
+  const dist = path.join(ROOT, "dist");
+  if (!fs.existsSync(path.join(dist, "taskpane.html"))) throw new Error("dist/ is missing: run `npm run build` first (npm test does)");
+  const routes: Record<string, string> = {};
+  const walk = (dir: string, prefix: string): void => {
+    for (const d of fs.readdirSync(dir, { withFileTypes: true })) {
+      if (d.isDirectory()) walk(path.join(dir, d.name), `${prefix}${d.name}/`);
+      else routes[`/${prefix}${d.name}`] = path.join(dir, d.name);
+    }
+  };
+  walk(dist, "");
+  return serve(routes);
+}
+
+const OFFICE_CDN = "https://appsforoffice.microsoft.com/lib/1/hosted/";
+
+/**
+ * Like {@link isolatedBrowser}, but the platform's office.js (and the files it loads next to itself)
+ * is served from node_modules instead of the CDN; every other non-loopback request is aborted and
+ * recorded.
+ */
+export async function paneBrowser(): Promise<{ browser: Browser; context: BrowserContext; offSite: string[] }> {
+  if (!fs.existsSync(CHROMIUM)) throw new Error(`${CHROMIUM} is missing: apt-get install -y chromium (the .ci/run script does)`);
+  const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_FLAGS });
+  const context = await browser.newContext({ viewport: { width: 320, height: 1400 }, acceptDownloads: true });
+  const offSite: string[] = [];
+  const officeDist = path.join(ROOT, "node_modules", "@microsoft", "office-js", "dist");
+  await context.route("**/*", (route) => {
+    const u = route.request().url();
+    if (u.startsWith(OFFICE_CDN)) {
+      const f = path.join(officeDist, u.slice(OFFICE_CDN.length).split("?")[0]);
+      if (f.startsWith(officeDist) && fs.existsSync(f)) return route.fulfill({ path: f, contentType: "text/javascript" });
+      return route.fulfill({ status: 404, body: "" });
+    }
+    if (u.startsWith("http://127.0.0.1:") || u.startsWith("data:") || u.startsWith("blob:")) return route.continue();
+    offSite.push(u);
+    return route.abort();
+  });
+  return { browser, context, offSite };
+}

@@ -56,7 +56,8 @@ function niceStep(span: number, target: number): number {
 export function fanGeometry(input: FanChartInput): FanGeometry {
   const width = input.width ?? 320;
   const height = input.height ?? 220;
-  const plot = { left: 46, right: width - 8, top: 26, bottom: height - 40 };
+  const twoRowLegend = width < 420;
+  const plot = { left: 46, right: width - 8, top: 26, bottom: height - (twoRowLegend ? 52 : 40) };
   const hist = input.history;
   const rows = input.fan.rows;
   const total = hist.length + rows.length;
@@ -149,19 +150,24 @@ export function fanChartSvg(input: FanChartInput): string {
     parts.push(`<text x="${ox}" y="${g.plot.bottom + 11}" font-size="9" text-anchor="middle" fill="${COLORS.axis}">${esc(atOrigin)}</text>`);
     parts.push(`<text x="${g.plot.right}" y="${g.plot.bottom + 11}" font-size="9" text-anchor="end" fill="${COLORS.axis}">${esc(lastLabel)}</text>`);
   }
-  // legend
-  const ly = g.height - 12;
+  // legend (two rows in a narrow pane)
+  const twoRows = g.width < 420;
+  let ly = g.height - (twoRows ? 24 : 12);
   let lx = g.plot.left;
-  const item = (draw: string, label: string, w: number): void => {
-    parts.push(draw.replace(/X/g, String(lx)).replace(/Y/g, String(ly)));
+  const item = (kind: "mean" | "median" | number, label: string, w: number): void => {
+    if (kind === "mean") parts.push(`<line x1="${lx}" x2="${lx + 12}" y1="${ly}" y2="${ly}" stroke="${COLORS.mean}" stroke-width="2"/>`);
+    else if (kind === "median") parts.push(`<line x1="${lx}" x2="${lx + 12}" y1="${ly}" y2="${ly}" stroke="${COLORS.median}" stroke-width="1"/><path d="M${lx + 6} ${ly - 3} l3 3 l-3 3 l-3 -3 z" fill="${COLORS.median}"/>`);
+    else parts.push(`<rect x="${lx}" y="${ly - 4}" width="12" height="8" fill="${bandColor(kind)}"/>`);
     parts.push(`<text x="${lx + 16}" y="${ly + 3}" font-size="9" fill="${COLORS.text}">${label}</text>`);
     lx += w;
   };
-  item(`<line x1="X" x2="${lx + 12}" y1="Y" y2="Y" stroke="${COLORS.mean}" stroke-width="2"/>`, "mean", 44);
-  item(`<line x1="X" x2="${lx + 12}" y1="Y" y2="Y" stroke="${COLORS.median}" stroke-width="1"/>`, "median", 52);
-  for (const b of g.bands.slice().sort((a, c) => a.level - c.level)) {
-    item(`<rect x="X" y="${ly - 4}" width="12" height="8" fill="${bandColor(b.level)}"/>`, `${b.level}% band`, 66);
+  item("mean", "mean", 44);
+  item("median", "median", 52);
+  if (twoRows) {
+    ly += 12;
+    lx = g.plot.left;
   }
+  for (const b of g.bands.slice().sort((a, c) => a.level - c.level)) item(b.level, `${b.level}% band`, 66);
   parts.push("</svg>");
   return parts.join("\n");
 }

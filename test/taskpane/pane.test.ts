@@ -1,0 +1,166 @@
+// The built pane in Debian's Chromium, stand-alone on the invented demo workbook: badges, the fan's
+// geometry (bands nest, mean above median for λ < 1), controls, paste box, width, and no request
+// leaving the machine. A screenshot is written to test-output/ for a person to look at.
+import * as fs from "fs";
+import * as path from "path";
+import type { Page } from "playwright-core";
+import { fromRoot, paneBrowser, serveDist } from "../helpers/browser";
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+type Json = any;
+
+let server: { url: string; close: () => Promise<void> };
+let env: Awaited<ReturnType<typeof paneBrowser>>;
+let page: Page;
+const pageErrors: string[] = [];
+
+beforeAll(async () => {
+  server = await serveDist();
+  env = await paneBrowser();
+  page = await env.context.newPage();
+  page.on("pageerror", (e) => pageErrors.push(e.message));
+  await page.goto(`${server.url}/taskpane.html`);
+  await page.waitForFunction(() => (window as unknown as { fanwisePane?: { renders: number } }).fanwisePane?.renders ?? 0 > 0, undefined, { timeout: 20000 });
+});
+
+afterAll(async () => {
+  await env?.browser.close();
+  await server?.close();
+});
+
+async function renders(): Promise<number> {
+  return page.evaluate(() => (window as unknown as { fanwisePane: { renders: number } }).fanwisePane.renders);
+}
+async function lastFan(): Promise<Json> {
+  return page.evaluate(() => (window as unknown as { fanwisePane: { lastFan: unknown } }).fanwisePane.lastFan);
+}
+function points(attr: string | null): [number, number][] {
+  return (attr ?? "").trim().split(/\s+/).map((p) => p.split(",").map(Number) as [number, number]);
+}
+
+test("the stand-alone page loads on the demo workbook, says so, and makes no request off the machine", async () => {
+  await page.waitForSelector("#fw-check table");
+  expect(await page.textContent("#fw-source")).toMatch(/demo workbook.*Invented demo data/);
+  expect(env.offSite).toEqual([]);
+  expect(pageErrors).toEqual([]);
+});
+
+test("the zero-month and the credit-month series carry the badge with the right reason", async () => {
+  const row = (name: string) => page.locator(`#fw-check tr[data-series="${name}"]`);
+  expect(await row("Old Quay").locator(".fw-badge").textContent()).toBe("not Box-Cox ready");
+  expect(await row("Old Quay").locator(".fw-reason").textContent()).toMatch(/1 zero \(minimum 0, first at 2023-02\).*Shift it by c/);
+  expect(await row("Parts costs (net)").locator(".fw-badge").textContent()).toBe("not Box-Cox ready");
+  expect(await row("Parts costs (net)").locator(".fw-reason").textContent()).toMatch(/1 negative value.*Yeo-Johnson/);
+  expect(await row("Harbour Street").locator(".fw-badge").count()).toBe(0);
+});
+
+test("the fan's bands nest (95 ⊇ 80 ⊇ 50) at every step, in the numbers and on screen", async () => {
+  const fan = await lastFan();
+  expect(fan.levels).toEqual([50, 80, 95]);
+  for (const r of fan.rows) {
+    const iv = (l: number, k: 0 | 1): number => r.intervals[String(l)][k].value;
+    expect(iv(95, 0)).toBeLessThanOrEqual(iv(80, 0));
+    expect(iv(80, 0)).toBeLessThanOrEqual(iv(50, 0));
+    expect(iv(50, 0)).toBeLessThanOrEqual(r.median.value);
+    expect(r.median.value).toBeLessThanOrEqual(iv(50, 1));
+    expect(iv(50, 1)).toBeLessThanOrEqual(iv(80, 1));
+    expect(iv(80, 1)).toBeLessThanOrEqual(iv(95, 1));
+  }
+  // On screen (y grows downwards): each band's polygon contains the next one's at every x.
+  const polys: Record<string, [number, number][]> = {};
+  for (const l of [50, 80, 95]) polys[l] = points(await page.getAttribute(`#fw-chart polygon.band-${l}`, "points"));
+  const half = (p: [number, number][]) => p.length / 2;
+  for (let k = 1; k < half(polys[95]); k++) {
+    const upper = (l: number) => polys[l][k][1];
+    const lower = (l: number) => polys[l][polys[l].length - 1 - k][1];
+    expect(upper(95)).toBeLessThanOrEqual(upper(80) + 1e-9);
+    expect(upper(80)).toBeLessThanOrEqual(upper(50) + 1e-9);
+    expect(lower(50)).toBeLessThanOrEqual(lower(80) + 1e-9);
+    expect(lower(80)).toBeLessThanOrEqual(lower(95) + 1e-9);
+  }
+});
+
+test("the mean line lies above the median line where λ < 1", async () => {
+  const fan = await lastFan();
+  expect(fan.lambda).toBeLessThan(1);
+  for (const r of fan.rows) expect(r.mean.value).toBeGreaterThan(r.median.value);
+  const mean = points(await page.getAttribute("#fw-chart polyline.mean", "points"));
+  const median = points(await page.getAttribute("#fw-chart polyline.median", "points"));
+  for (let k = 1; k < mean.length; k++) expect(mean[k][1]).toBeLessThanOrEqual(median[k][1]); // screen y: smaller is higher
+  expect(await page.textContent("#fw-gap")).toMatch(/mean is [\d.]+% .* above the median/);
+});
+
+test("changing the horizon changes the number of forecast points", async () => {
+  expect(await page.locator("#fw-chart .median-marker").count()).toBe(12);
+  const before = await renders();
+  await page.fill("#fw-horizon", "6");
+  await page.waitForFunction((n) => (window as unknown as { fanwisePane: { renders: number } }).fanwisePane.renders > n, before);
+  expect(await page.locator("#fw-chart .median-marker").count()).toBe(6);
+  expect((await lastFan()).rows).toHaveLength(6);
+});
+
+test("controls are labelled and reachable by keyboard", async () => {
+  for (const id of ["fw-series", "fw-method", "fw-lambda-mode", "fw-horizon", "fw-period", "fw-levels"]) {
+    expect(await page.locator(`label[for="${id}"]`).count()).toBe(1);
+  }
+  await page.focus("#fw-method");
+  await page.keyboard.press("Tab");
+  expect(await page.evaluate(() => document.activeElement?.id)).toBe("fw-lambda-mode");
+  expect(await page.locator("#fw-chart svg[role=img] title").textContent()).toMatch(/Fan chart/);
+});
+
+test("it fits the pane's 320 px width without horizontal scrolling, and the screenshot is written", async () => {
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(320);
+  const out = fromRoot("test-output");
+  fs.mkdirSync(out, { recursive: true });
+  await page.screenshot({ path: path.join(out, "pane-standalone.png"), fullPage: true });
+  expect(fs.statSync(path.join(out, "pane-standalone.png")).size).toBeGreaterThan(10000);
+});
+
+test("pasting a small table works", async () => {
+  await page.click("#fw-paste-box summary");
+  const tsv = ["month\tKiosk sales\tRepairs", ...Array.from({ length: 30 }, (_, i) => `2024-${i}\t${100 + 3 * i + (i % 4) * 5}\t${i === 7 ? 0 : 40 + i}`)].join("\n");
+  await page.fill("#fw-paste", tsv);
+  const before = await renders();
+  await page.click("#fw-paste-go");
+  await page.waitForFunction((n) => (window as unknown as { fanwisePane: { renders: number } }).fanwisePane.renders > n, before);
+  expect(await page.textContent("#fw-paste-msg")).toMatch(/2 series/);
+  expect(await page.locator("#fw-check tbody tr").count()).toBe(2);
+  expect(await page.locator('#fw-check tr[data-series="Repairs"] .fw-badge').textContent()).toBe("not Box-Cox ready");
+  expect((await lastFan()).rows.length).toBeGreaterThan(0);
+  await page.fill("#fw-paste", "just one line");
+  await page.click("#fw-paste-go");
+  expect(await page.textContent("#fw-paste-msg")).toMatch(/header row but no data rows|No column of numbers/);
+  expect(env.offSite).toEqual([]);
+});
+
+test("text meets WCAG AA contrast (4.5:1) against its background (WCAG 2.1 §1.4.3 formula)", async () => {
+  const ratios = await page.evaluate(() => {
+    const parse = (c: string): number[] => (c.match(/[\d.]+/g) ?? []).map(Number);
+    const lum = (rgb: number[]): number => {
+      const [r, g, b] = rgb.slice(0, 3).map((v) => {
+        const s = v / 255;
+        return s <= 0.03928 ? s / 12.92 : Math.pow((s + 0.055) / 1.055, 2.4);
+      });
+      return 0.2126 * r + 0.7152 * g + 0.0722 * b;
+    };
+    const background = (e: Element | null): number[] => {
+      for (let n = e; n; n = n.parentElement) {
+        const c = parse(getComputedStyle(n).backgroundColor);
+        if (c.length === 3 || (c.length === 4 && c[3] > 0)) return c;
+      }
+      return [255, 255, 255];
+    };
+    const out: [string, number][] = [];
+    for (const sel of ["h1", "h2", ".fw-sub", ".fw-note", ".fw-reason", ".fw-badge", ".fw-ok", "button", ".fw-series-button", ".fw-gap", ".fw-caution", ".fw-caution-inline", ".fw-readout dd", "#fw-check td"]) {
+      const e = document.querySelector(sel);
+      if (!e) continue;
+      const L1 = lum(parse(getComputedStyle(e).color));
+      const L2 = lum(background(e));
+      out.push([sel, (Math.max(L1, L2) + 0.05) / (Math.min(L1, L2) + 0.05)]);
+    }
+    return out;
+  });
+  expect(ratios.length).toBeGreaterThan(10);
+  for (const [sel, r] of ratios) expect([sel, r >= 4.5]).toEqual([sel, true]);
+});
