@@ -164,3 +164,14 @@ test("text meets WCAG AA contrast (4.5:1) against its background (WCAG 2.1 §1.4
   expect(ratios.length).toBeGreaterThan(10);
   for (const [sel, r] of ratios) expect([sel, r >= 4.5]).toEqual([sel, true]);
 });
+
+test("the preview exports as SVG and as PNG", async () => {
+  const [svg] = await Promise.all([page.waitForEvent("download"), page.click("#fw-export-svg")]);
+  expect(svg.suggestedFilename()).toBe("fanwise-fan.svg");
+  const svgText = fs.readFileSync(await svg.path(), "utf8");
+  expect(svgText).toMatch(/^<svg[\s\S]*class="band band-95"[\s\S]*<\/svg>$/);
+  const [png] = await Promise.all([page.waitForEvent("download"), page.click("#fw-export-png")]);
+  expect(png.suggestedFilename()).toBe("fanwise-fan.png");
+  const bytes = fs.readFileSync(await png.path());
+  expect(bytes.subarray(0, 8).toString("hex")).toBe("89504e470d0a1a0a");
+});
