@@ -51,3 +51,13 @@ export { fitForecast, checkHorizon } from "./models/fit";
 export type { Forecaster, ForecastOptions, LambdaSpec } from "./models/fit";
 export { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels } from "./models/fan";
 export type { FanRow, FanTable, Maybe, TotalForecast, DescriptionRow } from "./models/fan";
+
+export { hitSequence } from "./audit/hits";
+export type { HitSequence } from "./audit/hits";
+export { kupiec, transitions, christoffersenIndependence, conditionalCoverage, binomialTail, trafficLight } from "./audit/coverage-tests";
+export type { LrTest, Transitions, Zone } from "./audit/coverage-tests";
+export { intervalScore, pinball, crpsNormal, crpsBacktransformed } from "./audit/scores";
+export { auditCoverage } from "./audit/audit";
+export type { CoverageAudit } from "./audit/audit";
+export { backtest } from "./audit/backtest";
+export type { Backtest, BacktestRow, BacktestOptions } from "./audit/backtest";

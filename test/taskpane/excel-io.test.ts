@@ -64,7 +64,7 @@ function sheetMock(supports17: boolean): { excel: Any; written: Any } {
     getOffsetRange(r: number, c: number) { return makeRange(`${address}+${r},${c}`, rowOff + r, colOff + c); },
     getResizedRange(r: number, c: number) { return { ...makeRange(`${address}~${r},${c}`, rowOff, colOff), rows: r + 1, cols: c + 1, set formulasR1C1(v: unknown) { written.helper = { rowOff, colOff, rows: r + 1, cols: c + 1, v }; } }; },
   });
-  const series = (name: string): Any => ({ name, format: { fill: { clear() { this.cleared = true; }, setSolidColor(c: string) { this.color = c; } }, line: {} }, setValues(r: Any) { this.values = r; } });
+  const series = (name: string): Any => ({ name, format: { fill: { cleared: false, color: "", clear() { this.cleared = true; }, setSolidColor(c: string) { this.color = c; } } as Any, line: {} }, setValues(r: Any) { this.values = r; } });
   const excel = {
     context: {
       workbook: {

@@ -1,0 +1,127 @@
+// Rolling-origin evaluation (Tashman 2000, International Journal of Forecasting 16:437–450): refit at
+// every origin t ≥ t₀ on the data up to t, forecast 1..H steps, and score each step ahead.
+import { EngineError, isEngineError } from "../errors";
+import { requireLevelPercent } from "../_lib/check";
+import { cleanSeries } from "../series/clean";
+import type { RawCell } from "../series/screen";
+import { benchmarkMinimumLength } from "../models/benchmarks";
+import { minimumLength } from "../models/ets";
+import { fanTable } from "../models/fan";
+import { fitForecast, ForecastOptions, checkHorizon } from "../models/fit";
+import { isBenchmark, parseMethod } from "../models/methods";
+import { intervalScore } from "./scores";
+
+/** Per-step-ahead results of a backtest. */
+export interface BacktestRow {
+  h: number;
+  /** Origins with an actual h steps later. */
+  origins: number;
+  /** Share of actuals inside the interval (null when no origin reached this step). */
+  coverage: number | null;
+  /** Mean interval score. */
+  intervalScore: number | null;
+  /** Mean of actual − bias-adjusted mean. */
+  meanErrorOfMean: number | null;
+  /** Mean of actual − median (the back-transformed point forecast). */
+  meanErrorOfMedian: number | null;
+  /** Mean absolute error of the mean and of the median. */
+  maeOfMean: number | null;
+  maeOfMedian: number | null;
+}
+
+/** A backtest's results. */
+export interface Backtest {
+  horizon: number;
+  level: number;
+  first: number;
+  /** Origins at which the fit failed (with the first message), skipped. */
+  failures: number;
+  failureNote: string | null;
+  rows: BacktestRow[];
+}
+
+/** Options for {@link backtest}. */
+export interface BacktestOptions extends ForecastOptions {
+  /** Interval level in percent (default 95). */
+  level?: number;
+  /** Length of the first fitting window (default: the smallest the method needs). */
+  first?: number;
+  /** Called after each origin (done, total), e.g. for a progress bar. */
+  onProgress?: (done: number, total: number) => void;
+}
+
+function smallestLength(method: string, period: number): number {
+  const m = parseMethod(method);
+  if (m === "auto") return Math.max(4, minimumLength("ses", 1));
+  if (isBenchmark(m)) return Math.max(4, benchmarkMinimumLength(m, period));
+  return minimumLength(m, period);
+}
+
+function prepare(cells: readonly RawCell[], horizon: number, options: BacktestOptions): { y: number[]; H: number; first: number; level: number; origins: number } {
+  const y = cleanSeries(cells, options.label ?? "the series", options.firstRow ?? 1).values;
+  const H = checkHorizon(horizon, y.length);
+  const level = options.level ?? 95;
+  requireLevelPercent(level);
+  const period = options.period ?? 1;
+  const need = smallestLength(String(options.method ?? "auto"), period);
+  const first = options.first ?? need;
+  if (!Number.isInteger(first) || first < 2) throw new EngineError("input", `first must be a whole number of at least 2 (the length of the first fitting window); got ${first}.`);
+  if (first < need) throw new EngineError("input", `first = ${first} is too short for ${options.method ?? "auto"}: it needs at least ${need} values.`);
+  if (first + 1 > y.length) throw new EngineError("input", `The first origin (after ${first} values) leaves no room to check a forecast: the series has ${y.length} values. Use a smaller first or a longer series.`);
+  if (first + H > y.length) throw new EngineError("input", `The first origin (after ${first} values) leaves no room for ${H} steps: the series has ${y.length} values, so at most ${y.length - first} steps can be checked. Use a smaller horizon or first.`);
+  return { y, H, first, level, origins: y.length - first };
+}
+
+/**
+ * Rolling-origin backtest: for each origin t from `first` to n − 1, refit (λ chosen afresh when it
+ * is `auto`/`guerrero`/`mle`) on y[0..t), forecast up to H steps, and record, per step ahead, the
+ * coverage of the central `level`% interval, the mean interval score (Winkler 1972), and the mean
+ * error of the bias-adjusted mean and of the median — what using medians has cost on this history.
+ * Source: Tashman (2000). Origins whose fit fails are skipped and counted.
+ * @example backtest(air, 12, { method: "holt-winters", lambda: 0, period: 12 }).rows[0].coverage
+ */
+export function backtest(cells: readonly RawCell[], horizon: number, options: BacktestOptions = {}): Backtest {
+  const { y, H, first, level, origins } = prepare(cells, horizon, options);
+  const acc = Array.from({ length: H }, () => ({ n: 0, inside: 0, is: 0, emean: 0, emed: 0, amean: 0, amed: 0 }));
+  let failures = 0;
+  let failureNote: string | null = null;
+  const alpha = 1 - level / 100;
+  for (let t = first, k = 0; t < y.length; t++, k++) {
+    const steps = Math.min(H, y.length - t);
+    try {
+      const f = fitForecast(y.slice(0, t), { method: options.method, lambda: options.lambda, period: options.period, label: options.label });
+      const fan = fanTable(f, steps, { levels: [level] });
+      fan.rows.forEach((r, j) => {
+        const actual = y[t + j];
+        const [lo, hi] = r.intervals[String(level)];
+        const a = acc[j];
+        if (lo.value === null || hi.value === null || r.median.value === null) return;
+        a.n++;
+        if (actual >= lo.value && actual <= hi.value) a.inside++;
+        a.is += intervalScore(lo.value, hi.value, actual, alpha);
+        const mean = r.mean.value ?? r.median.value;
+        a.emean += actual - mean;
+        a.emed += actual - r.median.value;
+        a.amean += Math.abs(actual - mean);
+        a.amed += Math.abs(actual - r.median.value);
+      });
+    } catch (e) {
+      if (!isEngineError(e)) throw e;
+      failures++;
+      if (!failureNote) failureNote = `The fit failed at ${failures === 1 ? "an origin" : "some origins"} (first after ${t} values: ${e.message}); they are skipped.`;
+    }
+    options.onProgress?.(k + 1, origins);
+  }
+  const rows = acc.map((a, j) => ({
+    h: j + 1,
+    origins: a.n,
+    coverage: a.n ? a.inside / a.n : null,
+    intervalScore: a.n ? a.is / a.n : null,
+    meanErrorOfMean: a.n ? a.emean / a.n : null,
+    meanErrorOfMedian: a.n ? a.emed / a.n : null,
+    maeOfMean: a.n ? a.amean / a.n : null,
+    maeOfMedian: a.n ? a.amed / a.n : null,
+  }));
+  if (rows.every((r) => r.origins === 0)) throw new EngineError("input", `The backtest could not fit the model at any origin${failureNote ? `: ${failureNote}` : ""}.`);
+  return { horizon: H, level, first, failures, failureNote, rows };
+}
