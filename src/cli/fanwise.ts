@@ -1,7 +1,8 @@
 // The `fanwise` command line: CSV in → CSV (default) or JSON out; errors to stderr, exit 1.
 import * as fs from "fs";
 import * as path from "path";
-import { EngineError, fitLambda, isEngineError, cleanSeries, screenSeries, LambdaMethod, fitForecast, fanTable, totalForecast, Forecaster, Maybe } from "../engine";
+import { EngineError, fitLambda, isEngineError, cleanSeries, screenSeries, LambdaMethod, fitForecast, fanTable, totalForecast, Forecaster, Maybe, auditCoverage, backtest } from "../engine";
+import { fieldToCell } from "./csv";
 import { buildDemoWorkbook, demoForecastLogCsv, demoMonthlyCsv } from "../demo/quillmere";
 import { fanChartSvg } from "../taskpane/chart/fan-chart";
 import { csvSeries, parseCsv, toCsv, CsvSeries } from "./csv";
@@ -13,6 +14,8 @@ Usage:
   fanwise lambda FILE [--method guerrero|mle] [--period N] [--bounds -1,2] [--json]
   fanwise fan    FILE --horizon H [--method M] [--lambda L] [--levels 80,95] [--period N] [--mean taylor|exact] [--json]
   fanwise total  FILE --horizon H [--method M] [--lambda L] [--level 95] [--period N] [--seed S] [--paths P] [--json]
+  fanwise audit    FILE --actual COL --lower COL --upper COL --level P [--json]
+  fanwise backtest FILE --horizon H [--method M] [--lambda L] [--level 95] [--period N] [--first N] [--json]
   fanwise demo   [--out DIR]
 
 Methods: mean, naive, seasonal-naive, drift, ses, holt, damped, seasonal-ses, holt-winters,
@@ -316,6 +319,70 @@ function totalCommand(argv: string[], io: Io): number {
   return 0;
 }
 
+function auditCommand(argv: string[], io: Io): number {
+  const p = parseArgs(argv, { actual: "value", lower: "value", upper: "value", level: "value", json: "switch" });
+  for (const k of ["actual", "lower", "upper", "level"]) if (!p.flags.has(k)) throw new EngineError("input", `--${k} is required (fanwise audit FILE --actual COL --lower COL --upper COL --level P).`);
+  const level = numberFlag(p, "level") as number;
+  if (p.positional.length !== 1) throw new EngineError("input", "Give exactly one CSV file, e.g. fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80");
+  let text: string;
+  try {
+    text = fs.readFileSync(p.positional[0], "utf8");
+  } catch {
+    throw new EngineError("input", `File not found: ${p.positional[0]}`);
+  }
+  const t = parseCsv(text);
+  const col = (flag: string) => {
+    const name = String(p.flags.get(flag));
+    const j = t.header.indexOf(name);
+    if (j < 0) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
+    return t.rows.map((r) => fieldToCell(r[j]));
+  };
+  const a = auditCoverage(col("actual"), col("lower"), col("upper"), level, 2);
+  if (p.flags.has("json")) {
+    io.out(JSON.stringify({
+      n: a.n, misses: a.misses, coverage: a.coverage,
+      kupiec: { lr: a.kupiec.lr, p: a.kupiec.p }, independence: { lr: a.independence.lr, p: a.independence.p }, conditional: { lr: a.conditional.lr, p: a.conditional.p },
+      binomialTail: a.binomialTail, intervalScore: a.intervalScore,
+      level, skipped: a.skipped, zone: a.zone, verdict: a.verdict,
+    }, null, 2) + "\n");
+  } else {
+    io.out(toCsv(["n", "misses", "coverage", "nominal", "kupiec_lr", "kupiec_p", "independence_lr", "independence_p", "conditional_lr", "conditional_p", "binomial_tail", "interval_score", "zone", "verdict"],
+      [[a.n, a.misses, a.coverage, a.nominal, a.kupiec.lr, a.kupiec.p, a.independence.lr, a.independence.p, a.conditional.lr, a.conditional.p, a.binomialTail, a.intervalScore, a.zone, a.verdict]]));
+  }
+  return 0;
+}
+
+function backtestCommand(argv: string[], io: Io): number {
+  const p = parseArgs(argv, { horizon: "value", method: "value", lambda: "value", level: "value", period: "value", first: "value", json: "switch" });
+  const H = requireHorizon(p);
+  const level = numberFlag(p, "level") ?? 95;
+  const period = intFlag(p, "period", 1, 1);
+  const first = p.flags.has("first") ? intFlag(p, "first", 2, 2) : undefined;
+  const data = readSeriesFile(p);
+  const results = data.series.map((cells, j) => {
+    try {
+      return { name: data.names[j], b: backtest(cells, H, { method: String(p.flags.get("method") ?? "auto"), lambda: String(p.flags.get("lambda") ?? "auto"), level, period, first, label: data.names[j] }) };
+    } catch (e) {
+      if (isEngineError(e) && /^horizon|must be a percentage|is in percent/.test(e.message)) throw e;
+      return { name: data.names[j], error: errorMessage(e) };
+    }
+  });
+  if (p.flags.has("json")) {
+    const series: Record<string, unknown> = {};
+    for (const r of results) series[r.name] = r.b ? { horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, steps: r.b.rows } : { error: r.error };
+    io.out(JSON.stringify({ series }, null, 2) + "\n");
+  } else {
+    const rows: unknown[][] = [];
+    for (const r of results) {
+      if (!r.b) { rows.push([r.name, "", "", "", "", "", "", r.error]); continue; }
+      for (const s of r.b.rows) rows.push([r.name, s.h, s.origins, s.coverage, s.intervalScore, s.meanErrorOfMean, s.meanErrorOfMedian, s.h === 1 ? r.b.failureNote ?? "" : ""]);
+    }
+    io.out(toCsv(["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "note"], rows));
+  }
+  for (const r of results) if (!r.b) io.err(`fanwise: ${r.name}: ${r.error}\n`);
+  return 0;
+}
+
 function demoCommand(argv: string[], io: Io): number {
   const p = parseArgs(argv, { out: "value" });
   if (p.positional.length) throw new EngineError("input", `fanwise demo takes no file; got "${p.positional[0]}". Use --out DIR to choose where it writes.`);
@@ -377,7 +444,8 @@ function demoCommand(argv: string[], io: Io): number {
   }
   lines.push(`Wrote ${monthly}`);
   lines.push(`Wrote ${log}`);
-  lines.push(`Next: fanwise fan ${monthly} --horizon 12 --period 12    (or screen, lambda, total)`);
+  lines.push(`Next: fanwise fan ${monthly} --horizon 12 --period 12    (or screen, lambda, total, backtest)`);
+  lines.push(`      fanwise audit ${log} --actual actual --lower lower80 --upper upper80 --level 80`);
   lines.push("");
   lines.push("Forecasts are estimates from past patterns; intervals assume the model holds. Check results before committing money, and follow your organisation's forecasting and audit policies.");
   const summary = lines.join("\n") + "\n";
@@ -418,6 +486,8 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
       case "demo": return demoCommand(rest, io);
       case "fan": return fanCommand(rest, io);
       case "total": return totalCommand(rest, io);
+      case "audit": return auditCommand(rest, io);
+      case "backtest": return backtestCommand(rest, io);
       case undefined:
       case "help":
       case "--help":
@@ -425,7 +495,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         io.out(USAGE);
         return command === undefined ? 1 : 0;
       default:
-        io.err(`fanwise: unknown command "${command}". Commands: screen, lambda, fan, total, demo (fanwise help for more).\n`);
+        io.err(`fanwise: unknown command "${command}". Commands: screen, lambda, fan, total, audit, backtest, demo (fanwise help for more).\n`);
         return 1;
     }
   } catch (e) {

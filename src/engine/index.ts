@@ -59,5 +59,5 @@ export type { LrTest, Transitions, Zone } from "./audit/coverage-tests";
 export { intervalScore, pinball, crpsNormal, crpsBacktransformed } from "./audit/scores";
 export { auditCoverage } from "./audit/audit";
 export type { CoverageAudit } from "./audit/audit";
-export { backtest } from "./audit/backtest";
+export { backtest, backtestAsync } from "./audit/backtest";
 export type { Backtest, BacktestRow, BacktestOptions } from "./audit/backtest";

@@ -5,7 +5,7 @@ import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
-import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, checkHorizon } from "../engine";
+import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs } from "./coerce";
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
@@ -231,8 +231,15 @@ async function guardAsync<T>(f: () => Promise<T>): Promise<T> {
   }
 }
 
-/** Lets Excel's shared runtime breathe between series, so a long multi-series call never freezes the pane. */
+let lastYield = 0;
+/**
+ * Lets Excel's shared runtime breathe during long work (between series, between backtest origins),
+ * so the pane and Excel stay responsive; returns at once if it yielded less than 30 ms ago.
+ */
 function yieldToHost(): Promise<void> {
+  const now = Date.now();
+  if (now - lastYield < 30) return Promise.resolve();
+  lastYield = now;
   return new Promise((resolve) => setTimeout(resolve, 0));
 }
 
@@ -372,5 +379,104 @@ export async function MODELINFO(values: any[][], method?: string, lambda?: any, 
     const labels: string[] = [];
     for (const r of results) for (const [k] of r) if (!labels.includes(k)) labels.push(k);
     return finiteTable(labels.map((k) => [k, ...results.map((r) => { const hit = r.find(([kk]) => kk === k); return hit ? hit[1] : ""; })]));
+  });
+}
+
+function column(v: unknown, name: string): RawCell[] {
+  const m = readMatrix(v, name);
+  if (m.length > 1 && m[0].length > 1) throw new EngineError("input", `${name} must be a single column or a single row; it is ${m.length}×${m[0].length}.`);
+  return m.length === 1 ? m[0] : m.map((r) => r[0]);
+}
+
+/**
+ * Checks how often past intervals contained what happened: n, misses, observed coverage, and the Kupiec, independence, conditional-coverage and binomial-tail p-values, with the mean interval score.
+ * @customfunction COVERAGE
+ * @helpurl https://localhost:3000/README.html#fwcoverage
+ * @param {any[][]} actuals What happened, one per row (blanks are skipped).
+ * @param {any[][]} lower The lower ends of the published intervals, same rows.
+ * @param {any[][]} upper The upper ends, same rows.
+ * @param {number} level The intervals' promised coverage in percent, e.g. 80 or 95.
+ * @returns {any[][]} One row: n, misses, observed coverage, Kupiec p, independence p, conditional-coverage p, binomial tail p, mean interval score.
+ */
+export function COVERAGE(actuals: any[][], lower: any[][], upper: any[][], level: number): any[][] {
+  return guard(() => {
+    const lv = requiredNumber(level, "level");
+    checkLevelPercent(lv);
+    const a = auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv);
+    return finiteTable([[a.n, a.misses, a.coverage, a.kupiec.p, a.independence.p, a.conditional.p, a.binomialTail, a.intervalScore]]);
+  });
+}
+
+/**
+ * Mean interval (Winkler) score of past intervals: width plus a penalty for each miss. Lower is better.
+ * @customfunction INTERVALSCORE
+ * @helpurl https://localhost:3000/README.html#fwintervalscore
+ * @param {any[][]} actuals What happened, one per row (blanks are skipped).
+ * @param {any[][]} lower The lower ends of the intervals, same rows.
+ * @param {any[][]} upper The upper ends, same rows.
+ * @param {number} level The intervals' coverage in percent, e.g. 80 or 95.
+ * @returns {number} The mean interval score, in the units of the data.
+ */
+export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], level: number): number {
+  return guard(() => {
+    const lv = requiredNumber(level, "level");
+    checkLevelPercent(lv);
+    return auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv).intervalScore;
+  });
+}
+
+/**
+ * Mean pinball (quantile) loss of past quantile forecasts. Lower is better.
+ * @customfunction PINBALL
+ * @helpurl https://localhost:3000/README.html#fwpinball
+ * @param {any[][]} actuals What happened, one per row (blanks are skipped).
+ * @param {any[][]} quantiles The forecast quantiles, same rows.
+ * @param {number} p The probability the quantiles were for, strictly between 0 and 1 (e.g. 0.9).
+ * @returns {number} The mean pinball loss, in the units of the data.
+ */
+export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number {
+  return guard(() => {
+    const prob = requiredNumber(p, "p");
+    const a = column(actuals, "actuals");
+    const q = column(quantiles, "quantiles");
+    if (a.length !== q.length) throw new EngineError("input", `actuals and quantiles must have the same number of rows; they have ${a.length} and ${q.length}.`);
+    let sum = 0;
+    let n = 0;
+    a.forEach((y, i) => {
+      const qi = q[i];
+      if (y === null || y === "" || qi === null || qi === "") return;
+      if (typeof y !== "number" || typeof qi !== "number") throw new EngineError("input", `Row ${i + 1}: the actual and the quantile must be numbers.`);
+      sum += pinball(qi, y, prob);
+      n++;
+    });
+    if (n === 0) throw new EngineError("input", "No row has both an actual and a quantile.");
+    return sum / n;
+  });
+}
+
+/**
+ * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, and the mean error of the mean and of the median.
+ * @customfunction BACKTEST
+ * @helpurl https://localhost:3000/README.html#fwbacktest
+ * @param {any[][]} values The history, oldest first, one column (a header cell is allowed).
+ * @param {number} horizon Steps ahead to check (a whole number).
+ * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
+ * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {number} [level] Interval level in percent (default 95).
+ * @param {number} [period] Season length (default 1).
+ * @param {number} [first] Length of the first fitting window (default: the smallest the method needs).
+ * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median.
+ */
+export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number): Promise<any[][]> {
+  return guardAsync(async () => {
+    const args = forecastArgs(method, lambda, period);
+    const lv = optionalNumber(level, "level", 95);
+    checkLevelPercent(lv);
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const f = first === null || first === undefined ? undefined : optionalInteger(first, "first", 2, 2);
+    const s = readSeries(values);
+    if (s.series.length !== 1) throw new EngineError("input", `FW.BACKTEST checks one series at a time; the range has ${s.series.length} columns.`);
+    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, yieldToHost);
+    return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? ""]));
   });
 }

@@ -83,3 +83,28 @@ describe("fanwise total", () => {
     expect(t.interval[1]).toBeGreaterThan(t.median);
   });
 });
+
+describe("fanwise audit / backtest", () => {
+  test("audit on the demo's forecast log prints the stable JSON keys", () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "fanwise-audit-"));
+    runCli(["demo", "--out", dir]);
+    const r = runCli(["audit", path.join(dir, "quillmere-forecast-log.csv"), "--actual", "actual", "--lower", "lower80", "--upper", "upper80", "--level", "80", "--json"]);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    for (const k of ["n", "misses", "coverage", "kupiec", "independence", "conditional", "binomialTail", "intervalScore"]) expect(j).toHaveProperty(k);
+    expect(Object.keys(j.kupiec)).toEqual(["lr", "p"]);
+    expect([j.n, j.misses]).toEqual([36, 9]);
+    const bad = runCli(["audit", path.join(dir, "quillmere-forecast-log.csv"), "--actual", "actuals", "--lower", "lower80", "--upper", "upper80", "--level", "80"]);
+    expect(bad.code).toBe(1);
+    expect(bad.err).toMatch(/No column named "actuals"/);
+  });
+  test("backtest prints one row per step ahead and refuses a horizon with no room", () => {
+    const r = runCli(["backtest", datasetPath("airmiles"), "--horizon", "2", "--method", "drift", "--lambda", "0", "--json"]);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.out).series.value;
+    expect(s.steps).toHaveLength(2);
+    expect(s.steps[0].origins).toBe(24 - s.first);
+    const none = runCli(["backtest", datasetPath("airmiles"), "--horizon", "3", "--method", "drift", "--lambda", "0", "--first", "23", "--json"]);
+    expect(JSON.parse(none.out).series.value.error).toMatch(/no room for 3 steps/);
+  });
+});

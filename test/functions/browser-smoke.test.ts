@@ -6,7 +6,7 @@ import * as fs from "fs";
 import { fromRoot, isolatedBrowser, serve } from "../helpers/browser";
 import { check } from "../helpers/reference";
 
-const EXPECTED = ["BOXCOX", "BOXCOXINV", "YEOJOHNSON", "YEOJOHNSONINV", "FITLAMBDA", "SCREEN", "BTMEAN", "BTQUANTILE", "MEANFROMINTERVAL", "IMPLIEDLAMBDA", "FAN", "QUANTILES", "TOTAL", "MODELINFO"];
+const EXPECTED = ["BOXCOX", "BOXCOXINV", "YEOJOHNSON", "YEOJOHNSONINV", "FITLAMBDA", "SCREEN", "BTMEAN", "BTQUANTILE", "MEANFROMINTERVAL", "IMPLIEDLAMBDA", "FAN", "QUANTILES", "TOTAL", "MODELINFO", "COVERAGE", "INTERVALSCORE", "PINBALL", "BACKTEST"];
 
 test("the built functions bundle registers every FW function in Chromium and computes", async () => {
   const bundle = fromRoot("dist", "functions.js");

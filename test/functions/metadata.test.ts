@@ -23,6 +23,10 @@ const expected: Record<string, [string, boolean][]> = {
   QUANTILES: [["values", false], ["horizon", false], ["probs", false], ["method", true], ["lambda", true], ["period", true]],
   TOTAL: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["seed", true]],
   MODELINFO: [["values", false], ["method", true], ["lambda", true], ["period", true]],
+  COVERAGE: [["actuals", false], ["lower", false], ["upper", false], ["level", false]],
+  INTERVALSCORE: [["actuals", false], ["lower", false], ["upper", false], ["level", false]],
+  PINBALL: [["actuals", false], ["quantiles", false], ["p", false]],
+  BACKTEST: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["first", true]],
 };
 
 test("functions.json was built (npm run build) and lists every FW function with its parameters", () => {
@@ -37,7 +41,7 @@ test("functions.json was built (npm run build) and lists every FW function with 
     expect(f.description.length).toBeGreaterThan(20);
     expect(f.helpUrl).toMatch(/^https:\/\/localhost:3000\//);
     expect(f.parameters.map((p) => [p.name, Boolean(p.optional)])).toEqual(params);
-    expect(f.result.dimensionality).toBe("matrix");
+    expect(f.result.dimensionality).toBe(id === "INTERVALSCORE" || id === "PINBALL" ? "scalar" : "matrix");
   }
   expect(meta.functions.map((f) => f.id).sort()).toEqual(Object.keys(expected).sort());
 });

@@ -81,6 +81,25 @@ function prepare(cells: readonly RawCell[], horizon: number, options: BacktestOp
  * @example backtest(air, 12, { method: "holt-winters", lambda: 0, period: 12 }).rows[0].coverage
  */
 export function backtest(cells: readonly RawCell[], horizon: number, options: BacktestOptions = {}): Backtest {
+  const run = backtestRun(cells, horizon, options);
+  for (let r = run.next(); ; r = run.next()) if (r.done) return r.value;
+}
+
+/**
+ * {@link backtest}, pausing after every origin with the caller's `pause` (e.g. a zero-delay timer),
+ * so a long backtest never blocks a single-threaded host such as Excel's shared runtime. The
+ * engine itself stays free of timers.
+ * @example await backtestAsync(air, 12, { method: "holt-winters", period: 12 }, () => new Promise((r) => setTimeout(r, 0)))
+ */
+export async function backtestAsync(cells: readonly RawCell[], horizon: number, options: BacktestOptions, pause: () => Promise<void>): Promise<Backtest> {
+  const run = backtestRun(cells, horizon, options);
+  for (let r = run.next(); ; r = run.next()) {
+    if (r.done) return r.value;
+    await pause();
+  }
+}
+
+function* backtestRun(cells: readonly RawCell[], horizon: number, options: BacktestOptions): Generator<number, Backtest, void> {
   const { y, H, first, level, origins } = prepare(cells, horizon, options);
   const acc = Array.from({ length: H }, () => ({ n: 0, inside: 0, is: 0, emean: 0, emed: 0, amean: 0, amed: 0 }));
   let failures = 0;
@@ -111,6 +130,7 @@ export function backtest(cells: readonly RawCell[], horizon: number, options: Ba
       if (!failureNote) failureNote = `The fit failed at ${failures === 1 ? "an origin" : "some origins"} (first after ${t} values: ${e.message}); they are skipped.`;
     }
     options.onProgress?.(k + 1, origins);
+    yield k + 1;
   }
   const rows = acc.map((a, j) => ({
     h: j + 1,
