@@ -95,6 +95,10 @@ function benchEts(py, haveStatsmodels) {
   console.log(`total over 24 steps from 10,000 simulated paths (holt-winters, log scale): ${(tot.seconds * 1e3).toFixed(0)} ms`);
   const auto = time(() => engine.fitForecast(Array.from({ length: 240 }, (_, t) => Math.exp(data[t % data.length] + 0.002 * t)), { period: 12 }));
   console.log(`worst realistic cell call: auto on 20 years of monthly data: ${(auto.seconds * 1e3).toFixed(0)} ms (${auto.result.method})`);
+  // Backtest: holt-winters on 20 years of monthly data, every origin from two seasons + parameters on.
+  const long = Array.from({ length: 240 }, (_, t) => Math.exp(data[t % data.length] + 0.002 * t));
+  const bt = time(() => engine.backtest(long, 12, { method: "holt-winters", lambda: 0, period: 12, level: 80 }));
+  console.log(`backtest, holt-winters, 240 monthly points, every origin (${bt.result.rows[0].origins} refits), 12 steps: ${bt.seconds.toFixed(2)} s`);
 }
 
 function main() {

@@ -1,8 +1,8 @@
 // Pane bootstrap (an entry file: side effects allowed here). Inside Excel it follows the selected
 // range; outside Office it runs on the invented demo workbook and offers a paste box.
-import { RawCell, parseLevels } from "../engine";
+import { RawCell, parseLevels, backtestAsync } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
-import { checkRows, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData } from "./view-model";
+import { auditView, checkRows, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData } from "./view-model";
 import { pastedData } from "./paste";
 import { columnAddress, readSelection, writeFan } from "./excel-io";
 
@@ -28,6 +28,13 @@ function demoData(): PaneData {
     rowLabels: wb.months,
     headerRows: 1,
   };
+}
+
+function demoLog(): PaneData {
+  const wb = buildDemoWorkbook();
+  const L = wb.forecastLog;
+  const cols: [string, number[]][] = [["median", L.map((r) => r.median)], ["lower80", L.map((r) => r.lower80)], ["upper80", L.map((r) => r.upper80)], ["lower95", L.map((r) => r.lower95)], ["upper95", L.map((r) => r.upper95)], ["actual", L.map((r) => r.actual)]];
+  return { source: `Demo forecast log: past one-month-ahead forecasts for Harbour Street. ${DEMO_NOTICE}`, names: cols.map((c) => c[0]), columns: cols.map((c) => c[1]), rowLabels: L.map((r) => r.month), headerRows: 1 };
 }
 
 function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, cls?: string): HTMLElementTagNameMap[K] {
@@ -193,8 +200,101 @@ function renderAll(): void {
     $("fw-check").textContent = e instanceof Error ? e.message : String(e);
   }
   renderSeriesSelect();
+  renderAuditSelects();
   renderFan();
   state.lastRenderMs = performance.now() - t0;
+}
+
+function renderAuditSelects(): void {
+  const names = state.data.names;
+  const guess = (re: RegExp, fallback: number): number => {
+    const i = names.findIndex((n) => re.test(n));
+    return i >= 0 ? i : Math.min(fallback, names.length - 1);
+  };
+  const picks: [string, number][] = [["fw-audit-actual", guess(/actual/i, 0)], ["fw-audit-lower", guess(/low/i, 1)], ["fw-audit-upper", guess(/up|high/i, 2)]];
+  for (const [id, pick] of picks) {
+    const sel = $<HTMLSelectElement>(id);
+    sel.replaceChildren(...names.map((n, j) => {
+      const o = el("option", n);
+      o.value = String(j);
+      return o;
+    }));
+    sel.value = String(Math.max(0, pick));
+  }
+  const m = /(\d+(?:\.\d+)?)/.exec(names[picks[1][1]] ?? "");
+  if (m && Number(m[1]) > 0 && Number(m[1]) < 100) $<HTMLInputElement>("fw-audit-level").value = m[1];
+  $("fw-audit-readout").replaceChildren();
+  $("fw-audit-strip").replaceChildren();
+  $("fw-audit-verdict").textContent = "";
+}
+
+function renderAudit(): void {
+  const v = auditView(state.data, Number($<HTMLSelectElement>("fw-audit-actual").value), Number($<HTMLSelectElement>("fw-audit-lower").value), Number($<HTMLSelectElement>("fw-audit-upper").value), Number($<HTMLInputElement>("fw-audit-level").value));
+  const err = $("fw-audit-error");
+  const readout = $("fw-audit-readout");
+  if (!v.ok) {
+    err.hidden = false;
+    err.textContent = v.message;
+    readout.replaceChildren();
+    $("fw-audit-strip").replaceChildren();
+    $("fw-audit-verdict").textContent = "";
+    return;
+  }
+  err.hidden = true;
+  readout.replaceChildren();
+  for (const [k, val] of v.lines) {
+    readout.appendChild(el("dt", k));
+    readout.appendChild(el("dd", val));
+  }
+  const doc = new DOMParser().parseFromString(v.strip, "image/svg+xml");
+  $("fw-audit-strip").replaceChildren(document.importNode(doc.documentElement, true));
+  $("fw-audit-verdict").textContent = v.audit.verdict;
+}
+
+async function runBacktest(): Promise<void> {
+  const c = controls();
+  const bar = $<HTMLProgressElement>("fw-backtest-progress");
+  const out = $("fw-backtest");
+  bar.hidden = false;
+  bar.value = 0;
+  out.textContent = "Backtesting…";
+  try {
+    let last = 0;
+    const b = await backtestAsync(state.data.columns[c.series], Math.min(c.horizon, 12), {
+      method: c.method, lambda: c.lambda === "typed" ? "auto" : c.lambda, period: c.period, level: 80, label: state.data.names[c.series],
+      onProgress: (done, total) => { bar.max = total; bar.value = done; },
+    }, () => {
+      const now = performance.now();
+      if (now - last < 30) return Promise.resolve();
+      last = now;
+      return new Promise((r) => setTimeout(r, 0));
+    });
+    const t = el("table", undefined, "fw-table");
+    t.appendChild(el("caption", `Rolling-origin backtest of ${state.data.names[c.series]} (80% intervals; error = actual − forecast).`));
+    const head = el("tr");
+    for (const h of ["h", "origins", "coverage", "error of mean", "error of median"]) {
+      const th = el("th", h);
+      th.scope = "col";
+      head.appendChild(th);
+    }
+    t.appendChild(el("thead")).appendChild(head);
+    const body = el("tbody");
+    for (const r of b.rows) {
+      const tr = el("tr");
+      tr.appendChild(el("td", String(r.h), "num"));
+      tr.appendChild(el("td", String(r.origins), "num"));
+      tr.appendChild(el("td", r.coverage === null ? "n/a" : `${(100 * r.coverage).toFixed(0)}%`, "num"));
+      tr.appendChild(el("td", fmtCell(r.meanErrorOfMean), "num"));
+      tr.appendChild(el("td", fmtCell(r.meanErrorOfMedian), "num"));
+      body.appendChild(tr);
+    }
+    t.appendChild(body);
+    out.replaceChildren(t);
+  } catch (e) {
+    out.textContent = e instanceof Error ? e.message : String(e);
+  } finally {
+    bar.hidden = true;
+  }
 }
 
 function selectSeries(j: number): void {
@@ -280,6 +380,15 @@ function wire(): void {
     renderAll();
   });
   $("fw-write-go").addEventListener("click", () => void writeToSheet());
+  $("fw-audit-go").addEventListener("click", renderAudit);
+  $("fw-audit-controls").addEventListener("submit", (e) => e.preventDefault());
+  $("fw-backtest-go").addEventListener("click", () => void runBacktest());
+  $("fw-demo-log-go").addEventListener("click", () => {
+    state.data = demoLog();
+    state.series = 0;
+    renderAll();
+    renderAudit();
+  });
   showLambdaTyped();
 }
 

@@ -175,3 +175,29 @@ test("the preview exports as SVG and as PNG", async () => {
   const bytes = fs.readFileSync(await png.path());
   expect(bytes.subarray(0, 8).toString("hex")).toBe("89504e470d0a1a0a");
 });
+
+test("coverage audit on the demo forecast log: observed vs nominal, the tests, the zone and a strip of hits and misses", async () => {
+  if (!(await page.isVisible("#fw-demo-log-go"))) await page.click("#fw-paste-box summary");
+  await page.click("#fw-demo-log-go");
+  await page.waitForSelector("#fw-audit-strip svg");
+  expect(await page.textContent("#fw-audit-readout")).toMatch(/observed coverage75\.0% of 36 \(nominal 80%\)/);
+  expect(await page.textContent("#fw-audit-readout")).toMatch(/zonegreen/);
+  expect(await page.locator("#fw-audit-strip rect.miss").count()).toBe(9);
+  expect(await page.locator("#fw-audit-strip rect.hit").count()).toBe(27);
+  expect(await page.textContent("#fw-audit-verdict")).toMatch(/27 of 36 actuals .* within what chance explains/);
+  await page.selectOption("#fw-audit-lower", { label: "upper80" });
+  await page.selectOption("#fw-audit-upper", { label: "lower80" });
+  await page.click("#fw-audit-go");
+  expect(await page.textContent("#fw-audit-error")).toMatch(/lower end .* is above the upper end/);
+});
+
+test("a backtest runs from the pane with a progress bar and shows per-step results", async () => {
+  await page.click("#fw-demo-go");
+  await page.selectOption("#fw-method", "seasonal-naive");
+  await page.fill("#fw-horizon", "3");
+  await page.click("#fw-backtest-go");
+  await page.waitForSelector("#fw-backtest table", { timeout: 20000 });
+  expect(await page.locator("#fw-backtest tbody tr").count()).toBe(3);
+  expect(await page.isHidden("#fw-backtest-progress")).toBe(true);
+  expect(env.offSite).toEqual([]);
+});
