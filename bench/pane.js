@@ -4,6 +4,7 @@
 // of a fan-only re-render (a control change), median of repeated runs. Run by `npm run bench`
 // after `npm run build`; skipped when /usr/bin/chromium or dist/ is missing.
 "use strict";
+/* global window, document, performance -- these run inside the page, via page.evaluate */
 const fs = require("fs");
 const path = require("path");
 const http = require("http");

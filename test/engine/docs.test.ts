@@ -17,7 +17,7 @@ test("every function exported by src/engine/index.ts has a doc comment with @exa
     if (typeof value !== "function" || /^[A-Z]/.test(name)) continue; // classes are documented on the class
     const aliased = new RegExp(`(\\w+) as ${name}\\b`).exec(fs.readFileSync(path.join(ROOT, "index.ts"), "utf8"));
     const real = aliased ? aliased[1] : name;
-    const m = new RegExp(`/\\*\\*((?:(?!\\*/)[\\s\\S])*)\\*/\\s*export function ${real}\\b`).exec(all);
+    const m = new RegExp(`/\\*\\*((?:(?!\\*/)[\\s\\S])*)\\*/\\s*export (?:async )?function ${real}\\b`).exec(all);
     if (!m || !/@example/.test(m[1])) missing.push(name);
   }
   expect(missing).toEqual([]);

@@ -41,7 +41,8 @@ test("functions.json was built (npm run build) and lists every FW function with 
     expect(f.description.length).toBeGreaterThan(20);
     expect(f.helpUrl).toMatch(/^https:\/\/localhost:3000\//);
     expect(f.parameters.map((p) => [p.name, Boolean(p.optional)])).toEqual(params);
-    expect(f.result.dimensionality).toBe(id === "INTERVALSCORE" || id === "PINBALL" ? "scalar" : "matrix");
+    // a scalar result carries no dimensionality in the generated metadata
+    expect(f.result.dimensionality).toBe(id === "INTERVALSCORE" || id === "PINBALL" ? undefined : "matrix");
   }
   expect(meta.functions.map((f) => f.id).sort()).toEqual(Object.keys(expected).sort());
 });
