@@ -51,7 +51,7 @@ describe("back-transform on the (μ, σ, λ) grid (source: scipy 1.10.1 backtran
   }
 });
 
-describe("back-transform of published model forecasts (source: statsmodels 0.13.5 ETS / textbook-formula benchmarks, via backtransform.* fixtures)", () => {
+describe("back-transform of published model forecasts (source: statsmodels 0.13.5 ETS / numpy benchmark formulas, via backtransform.* fixtures)", () => {
   for (const c of checks("backtransform.").filter((x) => x.id !== "backtransform.grid")) {
     test(`${c.id}: every step's median, quantiles and means`, () => {
       const lambda = c.inputs.lambda;
