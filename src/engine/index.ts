@@ -31,6 +31,7 @@ export type { ExactMean, MeanMethod, QuantileValue } from "./distribution/backtr
 export { impliedLambda, meanFromInterval } from "./distribution/from-interval";
 export type { RecoveredForecast } from "./distribution/from-interval";
 export { cleanSeries } from "./series/clean";
+export { isHeaderRow } from "./series/header";
 export type { CleanSeries } from "./series/clean";
 export { requirePositiveSeries, isConstant } from "./series/positive";
 export { createRandom } from "./_lib/random";

@@ -7,7 +7,7 @@
 //  - a first row whose non-blank cells are all text is a header: it names the series;
 //  - a multi-column range is one series per column; a single row is one series;
 //  - an error value (#N/A, #DIV/0!, …) anywhere in an input range is refused with its position.
-import { EngineError, RawCell } from "../engine";
+import { EngineError, isHeaderRow, RawCell } from "../engine";
 
 /** A value as Excel passes it: number, string, boolean, null (empty), or an error object. */
 export type ExcelValue = unknown;
@@ -81,7 +81,7 @@ export function readSeries(range: ExcelValue, name = "values"): SeriesRange {
     return { names: ["row 1"], series: [cells[0]], headerRows: 0 };
   }
   const first = cells[0];
-  const header = first.some((c) => typeof c === "string" && c.trim() !== "") && first.every((c) => c === null || (typeof c === "string"));
+  const header = isHeaderRow(first);
   const body = header ? cells.slice(1) : cells;
   if (body.length === 0) throw new EngineError("input", `${name} has only a header row; select the numbers under it too.`);
   const names = first.map((c, j) => (header && typeof c === "string" && c.trim() !== "" ? c.trim() : `column ${columnName(j)}`));

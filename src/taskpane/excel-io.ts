@@ -1,6 +1,6 @@
 // The only Excel.run code of the pane: read the selection, write the FW.FAN formula and,
 // where the API allows, a native fan chart next to it.
-import { RawCell } from "../engine";
+import { isHeaderRow, RawCell } from "../engine";
 import type { PaneData } from "./view-model";
 
 /**
@@ -22,7 +22,7 @@ export async function readSelection(): Promise<PaneData> {
       if (t === "Boolean") return Boolean(v);
       return String(v);
     }));
-    const header = cells.length > 1 && cells[0].every((c) => c === null || typeof c === "string") && cells[0].some((c) => typeof c === "string");
+    const header = cells.length > 1 && isHeaderRow(cells[0]);
     const body = header ? cells.slice(1) : cells;
     const width = cells[0]?.length ?? 0;
     return {

@@ -1,6 +1,7 @@
 import { EngineError } from "../errors";
 import { fmt } from "../_lib/check";
 import type { RawCell } from "../series/screen";
+import { isBlank } from "../_lib/cells";
 
 /** Hits of a set of intervals against what happened. */
 export interface HitSequence {
@@ -15,9 +16,6 @@ export interface HitSequence {
   upper: number[];
 }
 
-function isBlank(c: RawCell): boolean {
-  return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
-}
 
 /**
  * The hit sequence I_t = 1{y_t < l_t or y_t > u_t} (ends inclusive: an actual equal to an end is

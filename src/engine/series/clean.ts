@@ -1,5 +1,6 @@
 import { EngineError } from "../errors";
 import type { RawCell } from "./screen";
+import { isBlank, cap } from "../_lib/cells";
 
 /** A series ready for the numeric engine, with what was trimmed. */
 export interface CleanSeries {
@@ -10,9 +11,6 @@ export interface CleanSeries {
   trailingBlanks: number;
 }
 
-function isBlank(c: RawCell): boolean {
-  return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
-}
 
 /**
  * Turns raw cells into a gap-free numeric series: leading and trailing blanks are trimmed (and
@@ -50,7 +48,3 @@ export function cleanSeries(cells: readonly RawCell[], label = "the series", fir
   return { values, leadingBlanks: first, trailingBlanks: trailing };
 }
 
-/** Capitalises a generic label ("the series") at the start of a sentence; names stay as written. */
-function cap(s: string): string {
-  return s.startsWith("the ") ? "T" + s.slice(1) : s;
-}

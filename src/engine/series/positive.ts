@@ -1,5 +1,6 @@
 import { EngineError } from "../errors";
 import { fmt } from "../_lib/check";
+import { cap } from "../_lib/cells";
 
 /**
  * Checks that a series is usable by Box-Cox: at least `minLength` finite values, all > 0.
@@ -42,9 +43,5 @@ export function isConstant(values: readonly number[]): boolean {
   return true;
 }
 
-/** Capitalises a generic label ("the series") at the start of a sentence; names stay as written. */
-function cap(s: string): string {
-  return s.startsWith("the ") ? "T" + s.slice(1) : s;
-}
 
 export { fmt };

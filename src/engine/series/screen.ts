@@ -2,6 +2,7 @@ import { EngineError, isEngineError } from "../errors";
 import { fmt } from "../_lib/check";
 import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
 import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
+import { isBlank, cap } from "../_lib/cells";
 
 /** A raw cell as the faces hand it over: a number, text, a boolean, or blank (null/undefined/""). */
 export type RawCell = number | string | boolean | null | undefined;
@@ -37,9 +38,6 @@ export interface ScreenResult {
   message: string;
 }
 
-function isBlank(c: RawCell): boolean {
-  return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
-}
 
 /**
  * Screens a raw series for Box-Cox: counts numbers, blanks (leading, trailing, interior) and text;
@@ -141,7 +139,3 @@ function listPositions(p: string[]): string {
   return p.length <= 5 ? p.join(", ") : `${p.slice(0, 5).join(", ")}, …`;
 }
 
-/** Capitalises a generic label ("the series") at the start of a sentence; names stay as written. */
-function cap(s: string): string {
-  return s.startsWith("the ") ? "T" + s.slice(1) : s;
-}
