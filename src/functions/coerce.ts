@@ -89,20 +89,51 @@ export function readSeries(range: ExcelValue, name = "values"): SeriesRange {
   return { names, series, headerRows: header ? 1 : 0 };
 }
 
+/**
+ * Says what a user passed, for messages: `the text "abc"`, `TRUE`, `an empty cell`, `the error
+ * #N/A`, `a range of 3×2 cells`, or the number itself. Never throws, whatever the value.
+ * @example describeValue([[1, 2]]) // "a range of 1×2 cells"
+ */
+export function describeValue(v: ExcelValue): string {
+  if (v === null || v === undefined || v === "") return "an empty cell";
+  if (typeof v === "number") return Number.isFinite(v) ? String(v) : "a value that is not a finite number";
+  if (typeof v === "string") return `the text "${v.length > 20 ? `${v.slice(0, 20)}…` : v}"`;
+  if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
+  if (Array.isArray(v)) {
+    const rows = v.length;
+    const cols = Array.isArray(v[0]) ? v[0].length : 1;
+    return rows === 0 || cols === 0 ? "an empty range" : `a range of ${rows}×${cols} cells`;
+  }
+  if (isErrorValue(v)) return `the error ${errorCode(v)}`;
+  return "a value that is neither a number nor text";
+}
+
+/**
+ * One argument that must be a single value: a 1×1 range is unwrapped; a larger range or an error
+ * value is refused with a message naming the argument.
+ */
+function singleValue(v: ExcelValue, name: string): ExcelValue {
+  if (!Array.isArray(v)) {
+    if (isErrorValue(v)) throw new EngineError("input", `${name} holds the error ${errorCode(v)}. Fix that cell first.`);
+    return v;
+  }
+  if (v.length === 1 && Array.isArray(v[0]) && v[0].length === 1) return singleValue(v[0][0], name);
+  throw new EngineError("input", `${name} must be a single cell; got ${describeValue(v)}.`);
+}
+
 /** An optional number argument: null/undefined/"" → the default; text that is not a number is refused. */
 export function optionalNumber(v: ExcelValue, name: string, dflt: number): number {
-  if (v === null || v === undefined || v === "") return dflt;
-  return requiredNumber(v, name);
+  const x = singleValue(v, name);
+  if (x === null || x === undefined || x === "") return dflt;
+  return requiredNumber(x, name);
 }
 
 /** A required number argument (a single cell holding a number). */
 export function requiredNumber(v: ExcelValue, name: string): number {
-  let x = v;
-  if (Array.isArray(x) && x.length === 1 && Array.isArray(x[0]) && x[0].length === 1) x = x[0][0];
+  const x = singleValue(v, name);
   if (typeof x === "number" && Number.isFinite(x)) return x;
-  if (isErrorValue(x)) throw new EngineError("input", `${name} holds the error ${errorCode(x)}.`);
   if (x === null || x === undefined || x === "") throw new EngineError("input", `${name} is missing; give a number.`);
-  throw new EngineError("input", `${name} must be a number; got ${typeof x === "string" ? `the text "${x.slice(0, 20)}"` : String(x)}.`);
+  throw new EngineError("input", `${name} must be a number; got ${describeValue(x)}.`);
 }
 
 /** An optional whole number ≥ min. */
@@ -113,9 +144,10 @@ export function optionalInteger(v: ExcelValue, name: string, dflt: number, min: 
 }
 
 /** An optional keyword from a fixed list, matched case-insensitively; the message lists the valid ones. */
-export function optionalKeyword<T extends string>(v: ExcelValue, name: string, allowed: readonly T[], dflt: T): T {
+export function optionalKeyword<T extends string>(raw: ExcelValue, name: string, allowed: readonly T[], dflt: T): T {
+  const v = singleValue(raw, name);
   if (v === null || v === undefined || v === "") return dflt;
-  if (typeof v !== "string") throw new EngineError("input", `${name} must be one of ${allowed.map((a) => `"${a}"`).join(", ")}; got ${String(v)}.`);
+  if (typeof v !== "string") throw new EngineError("input", `${name} must be one of ${allowed.map((a) => `"${a}"`).join(", ")}; got ${describeValue(v)}.`);
   const k = v.trim().toLowerCase();
   const hit = allowed.find((a) => a === k);
   if (!hit) throw new EngineError("input", `Unknown ${name} "${v}". Use one of ${allowed.map((a) => `"${a}"`).join(", ")}.`);
@@ -130,37 +162,39 @@ export function readMatrix(v: ExcelValue, name: string): RawCell[][] {
 }
 
 /** An optional TRUE/FALSE argument (numbers 0/1 are accepted too). */
-export function optionalBoolean(v: ExcelValue, name: string, dflt: boolean): boolean {
+export function optionalBoolean(raw: ExcelValue, name: string, dflt: boolean): boolean {
+  const v = singleValue(raw, name);
   if (v === null || v === undefined || v === "") return dflt;
   if (typeof v === "boolean") return v;
   if (v === 0 || v === 1) return v === 1;
-  throw new EngineError("input", `${name} must be TRUE or FALSE; got ${String(v)}.`);
+  throw new EngineError("input", `${name} must be TRUE or FALSE; got ${describeValue(v)}.`);
 }
 
 /** λ for a forecast: a number, or "auto" / "guerrero" / "mle" / "none" (any case). Default "auto". */
 export function readLambda(v: ExcelValue): string | number {
-  if (v === null || v === undefined || v === "") return "auto";
-  let x = v;
-  if (Array.isArray(x) && x.length === 1 && Array.isArray(x[0]) && x[0].length === 1) x = x[0][0];
+  const x = singleValue(v, "lambda");
+  if (x === null || x === undefined || x === "") return "auto";
   if (typeof x === "number") {
     if (!Number.isFinite(x)) throw new EngineError("input", "lambda is not a finite number.");
     return x;
   }
   if (typeof x === "string") return x;
-  if (isErrorValue(x)) throw new EngineError("input", `lambda holds the error ${errorCode(x)}.`);
-  throw new EngineError("input", `lambda must be a number or one of "auto", "guerrero", "mle", "none"; got ${String(x)}.`);
+  throw new EngineError("input", `lambda must be a number or one of "auto", "guerrero", "mle", "none"; got ${describeValue(x)}.`);
 }
 
 /** Interval levels: a cell, a range of numbers, or text like "80,95"; blank → the default. */
 export function readLevels(v: ExcelValue): number[] | string | undefined {
   if (v === null || v === undefined || v === "") return undefined;
   if (typeof v === "string") return v;
-  if (typeof v === "number") return [v];
+  if (typeof v === "number") {
+    if (!Number.isFinite(v)) throw new EngineError("input", "levels is not a finite number; give percentages like 80 and 95.");
+    return [v];
+  }
   if (Array.isArray(v)) {
     const cells = (v as ExcelValue[][]).flat().filter((c) => c !== null && c !== "");
     if (cells.length === 1 && typeof cells[0] === "string") return cells[0] as string;
     return cells.map((c) => {
-      if (typeof c !== "number") throw new EngineError("input", `levels must be percentages like 80 and 95; got ${JSON.stringify(c)}.`);
+      if (typeof c !== "number" || !Number.isFinite(c)) throw new EngineError("input", `levels must be percentages like 80 and 95; got ${describeValue(c)}.`);
       return c;
     });
   }
@@ -172,7 +206,7 @@ export function readProbs(v: ExcelValue): number[] {
   const cells = (Array.isArray(v) ? (v as ExcelValue[][]).flat() : [v]).filter((c) => c !== null && c !== "" && c !== undefined);
   if (cells.length === 0) throw new EngineError("input", "probs must list at least one probability, e.g. 0.1 and 0.9.");
   return cells.map((c) => {
-    if (typeof c !== "number") throw new EngineError("input", `probs must be numbers strictly between 0 and 1; got ${JSON.stringify(c)}.`);
+    if (typeof c !== "number" || !Number.isFinite(c)) throw new EngineError("input", `probs must be numbers strictly between 0 and 1; got ${describeValue(c)}.`);
     return c;
   });
 }

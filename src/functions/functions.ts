@@ -114,6 +114,12 @@ export function FITLAMBDA(values: any[][], method?: string, period?: number, low
   });
 }
 
+/** A single-number result, or a #NUM! error saying it overflowed (values near ±1e308). */
+function finiteResult(x: number, what: string): number {
+  if (Number.isFinite(x)) return x;
+  throw new CustomFunctions.Error(CustomFunctions.ErrorCode.invalidNumber, `${what} is too large to represent; the values are near the limit of numbers (about 1e308). Rescale them, e.g. to thousands.`);
+}
+
 function naCell(message: string): CustomFunctions.Error {
   return toExcelError(new EngineError("unavailable", message));
 }
@@ -421,7 +427,7 @@ export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], 
   return guard(() => {
     const lv = requiredNumber(level, "level");
     checkLevelPercent(lv);
-    return auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv).intervalScore;
+    return finiteResult(auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv).intervalScore, "The mean interval score");
   });
 }
 
@@ -450,7 +456,7 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
       n++;
     });
     if (n === 0) throw new EngineError("input", "No row has both an actual and a quantile.");
-    return sum / n;
+    return finiteResult(sum / n, "The mean pinball loss");
   });
 }
 

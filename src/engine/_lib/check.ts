@@ -3,7 +3,8 @@ import { EngineError } from "../errors";
 
 /** Formats a number for a message: short, without trailing noise. */
 export function fmt(x: number): string {
-  if (!Number.isFinite(x)) return String(x);
+  if (Number.isNaN(x)) return "not a number";
+  if (!Number.isFinite(x)) return x > 0 ? "infinite" : "minus infinite";
   if (x !== 0 && (Math.abs(x) >= 1e6 || Math.abs(x) < 1e-4)) return x.toExponential(3);
   return String(Number(x.toPrecision(6)));
 }
@@ -62,7 +63,7 @@ export function requireLevelPercent(level: unknown, name = "level"): number {
 }
 
 function describe(x: unknown): string {
-  if (typeof x === "number") return String(x);
+  if (typeof x === "number") return fmt(x);
   if (typeof x === "string") return `the text "${x.length > 20 ? x.slice(0, 20) + "…" : x}"`;
   if (x === null || x === undefined) return "nothing (blank)";
   return typeof x;

@@ -4,7 +4,7 @@ import { EngineError, isEngineError } from "../errors";
 import { fmt, requireLevelPercent, requireProbability } from "../_lib/check";
 import { backtransformMeanExact, backtransformMeanTaylor, MeanMethod } from "../distribution/backtransform";
 import { normalQuantile } from "../distribution/normal";
-import { boxCoxInverseDetailed } from "../transform/box-cox";
+import { boxCoxInverseDetailed, LAMBDA_ZERO } from "../transform/box-cox";
 import { checkHorizon, Forecaster } from "./fit";
 
 /** A value that may not exist, with the reason when it does not. */
@@ -154,15 +154,23 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
   const totals = new Float64Array(paths);
   let unbounded = 0;
   let floored = 0;
+  // The inverse Box-Cox of boxCoxInverseDetailed, inlined: this loop runs paths × H times and an
+  // object per value made it allocation-bound (same values, same floor/pole rules).
+  const lam = f.lambda;
+  const logScale = lam !== null && Math.abs(lam) < LAMBDA_ZERO;
+  const { exp, log1p } = Math; // local: no global lookup per value (slow in sandboxed contexts)
   for (let r = 0; r < paths; r++) {
     let t = 0;
+    const o = r * H;
     for (let j = 0; j < H; j++) {
-      const w = sims[r * H + j];
-      if (f.lambda === null) t += w;
+      const w = sims[o + j];
+      if (lam === null) t += w;
+      else if (logScale) t += exp(w);
       else {
-        const v = boxCoxInverseDetailed(w, f.lambda);
-        if (v.status === "floor") floored++;
-        t += v.value;
+        const base = lam * w;
+        if (base > -1) t += exp(log1p(base) / lam);
+        else if (lam > 0) floored++; // the floor 0
+        else t = Infinity; // past the pole
       }
     }
     if (!Number.isFinite(t)) unbounded++;
