@@ -1,7 +1,108 @@
-// CSV reading for the command line: RFC 4180 quoting, CRLF or LF, an optional UTF-8 BOM, and
-// lines starting with "#" as comments. A column whose values are mostly not numbers is a label
-// column (dates, periods); every other column is a series, with blank cells as gaps.
+// CSV reading for the command line and the pane's paste box: RFC 4180 quoting, CRLF, LF or CR, an
+// optional UTF-8 BOM, and lines starting with "#" as comments. A column whose values are mostly not
+// numbers is a label column (dates, periods); every other column is a series, with blank cells as
+// gaps. Files are read in chunks and parsed as they arrive into compact columns (a Float64Array of
+// numbers per column, text kept only where a cell is text), so a large file is never held as text
+// and as a table at the same time.
+// Pure (no file or DOM access): the pane bundles it too; reading files is csv-file.ts.
 import { EngineError, RawCell } from "../engine";
+
+/** Receives each record (its fields, and the 1-based line it starts on). */
+export type RecordSink = (fields: string[], line: number) => void;
+
+const SPECIAL = /[,\r\n"]/g;
+
+/**
+ * An incremental RFC 4180 reader: `push` text in pieces of any size (a record may span pieces),
+ * then `end`. Empty lines are skipped; a line starting with "#" is a comment. Throws an `input`
+ * EngineError for an unterminated quote.
+ * @example const r = new CsvRecordReader((f) => out.push(f)); r.push("a,\"b,"); r.push("c\"\n"); r.end(); // out: [["a", "b,c"]]
+ */
+export class CsvRecordReader {
+  private field = "";
+  private fields: string[] = [];
+  private inQuotes = false;
+  private quoteSeen = false;
+  private inComment = false;
+  private afterCR = false;
+  private atLineStart = true;
+  private started = false;
+  private line = 1;
+  private recordLine = 1;
+
+  constructor(private readonly sink: RecordSink) {}
+
+  /** Feeds the next piece of text. */
+  push(s: string): void {
+    let i = 0;
+    const n = s.length;
+    if (!this.started && n > 0) {
+      this.started = true;
+      if (s.charCodeAt(0) === 0xfeff) i = 1; // UTF-8 byte order mark
+    }
+    while (i < n) {
+      const ch = s[i];
+      if (this.afterCR) {
+        this.afterCR = false;
+        if (ch === "\n") { i++; continue; }
+      }
+      if (this.inComment) {
+        if (ch === "\n" || ch === "\r") this.newLine(ch);
+        i++;
+        continue;
+      }
+      if (this.inQuotes) {
+        if (this.quoteSeen) {
+          this.quoteSeen = false;
+          if (ch === '"') { this.field += '"'; i++; continue; }
+          this.inQuotes = false; // the closing quote; ch is read as unquoted text below
+        } else {
+          const q = s.indexOf('"', i);
+          const end = q < 0 ? n : q;
+          const chunk = s.slice(i, end);
+          for (let k = chunk.indexOf("\n"); k >= 0; k = chunk.indexOf("\n", k + 1)) this.line++;
+          this.field += chunk;
+          if (q >= 0) this.quoteSeen = true;
+          i = end + (q >= 0 ? 1 : 0);
+          continue;
+        }
+      }
+      if (this.atLineStart && ch === "#") { this.inComment = true; i++; continue; }
+      this.atLineStart = false;
+      if (ch === '"' && this.field.trim() === "") { this.field = ""; this.inQuotes = true; i++; continue; }
+      if (ch === ",") { this.fields.push(this.field); this.field = ""; i++; continue; }
+      if (ch === "\n" || ch === "\r") { this.endRecord(); this.newLine(ch); i++; continue; }
+      // Plain text: take everything up to the next comma, quote or line break at once.
+      SPECIAL.lastIndex = i + 1;
+      const m = SPECIAL.exec(s);
+      const end = m ? m.index : n;
+      this.field += s.slice(i, end);
+      i = end;
+    }
+  }
+
+  /** Ends the input: flushes the last record; throws if a quoted field was never closed. */
+  end(): void {
+    if (this.inQuotes && !this.quoteSeen) throw new EngineError("input", `A quoted field starting on line ${this.recordLine} is never closed. Check the quotes in the file.`);
+    if (this.field !== "" || this.fields.length > 0) this.endRecord();
+  }
+
+  private newLine(ch: string): void {
+    this.inComment = false;
+    this.line++;
+    this.recordLine = this.line;
+    this.atLineStart = true;
+    if (ch === "\r") this.afterCR = true;
+  }
+
+  private endRecord(): void {
+    this.fields.push(this.field);
+    const blank = this.fields.length === 1 && this.fields[0].trim() === "";
+    if (!blank) this.sink(this.fields, this.recordLine);
+    this.fields = [];
+    this.field = "";
+  }
+}
 
 /** A parsed CSV table: header names and rows of raw text fields. */
 export interface CsvTable {
@@ -12,76 +113,67 @@ export interface CsvTable {
 }
 
 /**
- * Parses CSV text. Throws an `input` EngineError naming the line for unequal rows or an
- * unterminated quote.
+ * Parses CSV text held in memory (the paste box, small files) into a table. Throws an `input`
+ * EngineError naming the line for unequal rows or an unterminated quote.
  * @example parseCsv("a,b\n1,2\n").rows // [["1", "2"]]
  */
 export function parseCsv(text: string): CsvTable {
-  let s = text;
-  if (s.charCodeAt(0) === 0xfeff) s = s.slice(1);
-  if (s.indexOf("\u0000") >= 0) throw new EngineError("input", "The file is not text (it contains NUL bytes). Export the sheet as CSV first.");
-  const records: { fields: string[]; line: number }[] = [];
-  let field = "";
-  let fields: string[] = [];
-  let inQuotes = false;
-  let line = 1;
-  let recordLine = 1;
-  let atLineStart = true;
-  let i = 0;
-  const n = s.length;
-  const endRecord = (): void => {
-    fields.push(field);
-    if (!(fields.length === 1 && fields[0].trim() === "")) records.push({ fields, line: recordLine });
-    fields = [];
-    field = "";
-  };
-  while (i < n) {
-    const ch = s[i];
-    if (inQuotes) {
-      if (ch === '"') {
-        if (s[i + 1] === '"') { field += '"'; i += 2; continue; }
-        inQuotes = false; i++; continue;
-      }
-      if (ch === "\n") line++;
-      field += ch; i++; continue;
-    }
-    if (atLineStart && ch === "#") {
-      while (i < n && s[i] !== "\n") i++;
-      i++; line++; recordLine = line; atLineStart = true;
-      continue;
-    }
-    atLineStart = false;
-    if (ch === '"' && field.trim() === "") { field = ""; inQuotes = true; i++; continue; }
-    if (ch === ",") { fields.push(field); field = ""; i++; continue; }
-    if (ch === "\r" && s[i + 1] === "\n") { i++; continue; }
-    if (ch === "\n" || ch === "\r") {
-      endRecord(); i++; line++; recordLine = line; atLineStart = true;
-      continue;
-    }
-    field += ch; i++;
-  }
-  if (inQuotes) throw new EngineError("input", `A quoted field starting on line ${recordLine} is never closed. Check the quotes in the file.`);
-  if (field !== "" || fields.length > 0) endRecord();
-  if (records.length === 0) throw new EngineError("input", "The file has no rows. It needs a header row naming the columns, then the data.");
-  const header = records[0].fields.map((h) => h.trim());
+  if (text.indexOf("\u0000") >= 0) throw notText();
+  let header: string[] | null = null;
   const rows: string[][] = [];
   const lines: number[] = [];
-  for (let r = 1; r < records.length; r++) {
-    const f = records[r].fields;
-    if (f.length !== header.length) {
-      throw new EngineError("input", `Line ${records[r].line} has ${f.length} field${f.length === 1 ? "" : "s"} but the header has ${header.length}. Every row needs one value (or an empty field) per column.`);
-    }
-    rows.push(f);
-    lines.push(records[r].line);
-  }
-  if (rows.length === 0) throw new EngineError("input", "The file has a header row but no data rows.");
+  const reader = new CsvRecordReader((fields, line) => {
+    if (header === null) { header = checkHeader(fields); return; }
+    checkWidth(fields, header.length, line);
+    rows.push(fields);
+    lines.push(line);
+  });
+  reader.push(text);
+  reader.end();
+  if (header === null) throw noRows();
+  if (rows.length === 0) throw headerOnly();
   return { header, rows, lines };
+}
+
+export function notText(): EngineError {
+  return new EngineError("input", "The file is not text (it contains NUL bytes). Export the sheet as CSV first.");
+}
+function noRows(): EngineError {
+  return new EngineError("input", "The file has no rows. It needs a header row naming the columns, then the data.");
+}
+function headerOnly(): EngineError {
+  return new EngineError("input", "The file has a header row but no data rows.");
+}
+
+function checkWidth(fields: string[], width: number, line: number): void {
+  if (fields.length !== width) {
+    throw new EngineError("input", `Line ${line} has ${fields.length} field${fields.length === 1 ? "" : "s"} but the header has ${width}. Every row needs one value (or an empty field) per column; a value with a comma needs quotes ("12,500").`);
+  }
+}
+
+/**
+ * Trims the header's names, refuses a first row that is all numbers (the file has no header), and
+ * makes repeated names unique ("sales", "sales (2)") so no column is lost in the JSON output.
+ */
+function checkHeader(fields: string[]): string[] {
+  const names = fields.map((h) => h.trim());
+  if (names.every((h) => typeof fieldToCell(h) === "number")) {
+    throw new EngineError("input", `The first row (${names.slice(0, 3).join(",")}${names.length > 3 ? ",…" : ""}) is numbers, not column names. Add a header row naming the columns, e.g. month,sales.`);
+  }
+  const seen = new Map<string, number>();
+  return names.map((h) => {
+    if (h === "") return h;
+    const k = (seen.get(h) ?? 0) + 1;
+    seen.set(h, k);
+    return k === 1 ? h : `${h} (${k})`;
+  });
 }
 
 /** Header names that mark the first column as period labels even when they are numbers (years). */
 const LABEL_NAMES = /^(period|date|month|year|quarter|week|day|time|t)$/i;
 
 const GROUPED = /^[-+]?\d{1,3}(,\d{3})+(\.\d+)?$/;
+const PLAIN_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 
 /**
  * Reads one CSV field as a cell: blank → null; a number (also with thousands separators such as
@@ -92,47 +184,159 @@ export function fieldToCell(f: string): RawCell {
   const t = f.trim();
   if (t === "") return null;
   const plain = GROUPED.test(t) ? t.replace(/,/g, "") : t;
-  if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(plain)) {
+  if (PLAIN_NUMBER.test(plain)) {
     const v = Number(plain);
     if (Number.isFinite(v)) return v;
   }
   return t;
 }
 
+const BLANK = 0;
+const NUMBER = 1;
+const TEXT = 2;
+
+/** One column stored compactly: numbers in a Float64Array, text only where a cell is text. */
+class Column {
+  nums = new Float64Array(1024);
+  kinds = new Uint8Array(1024);
+  texts = new Map<number, string>();
+  numeric = 0;
+  nonBlank = 0;
+
+  constructor(readonly keepText: boolean) {}
+
+  add(i: number, field: string): void {
+    if (i >= this.nums.length) this.grow();
+    if (this.keepText) {
+      const t = field.trim();
+      this.kinds[i] = t === "" ? BLANK : TEXT;
+      if (t !== "") { this.texts.set(i, t); this.nonBlank++; }
+      return;
+    }
+    const c = fieldToCell(field);
+    if (c === null) this.kinds[i] = BLANK;
+    else if (typeof c === "number") { this.kinds[i] = NUMBER; this.nums[i] = c; this.numeric++; this.nonBlank++; }
+    else { this.kinds[i] = TEXT; this.texts.set(i, c as string); this.nonBlank++; }
+  }
+
+  private grow(): void {
+    const nums = new Float64Array(this.nums.length * 2);
+    nums.set(this.nums);
+    this.nums = nums;
+    const kinds = new Uint8Array(this.kinds.length * 2);
+    kinds.set(this.kinds);
+    this.kinds = kinds;
+  }
+
+  cells(rows: number): RawCell[] {
+    const out: RawCell[] = new Array(rows);
+    for (let i = 0; i < rows; i++) {
+      const k = this.kinds[i];
+      out[i] = k === NUMBER ? this.nums[i] : k === BLANK ? null : (this.texts.get(i) as string);
+    }
+    return out;
+  }
+
+  labels(rows: number): string[] {
+    return Array.from({ length: rows }, (_, i) => (this.kinds[i] === NUMBER ? String(this.nums[i]) : this.texts.get(i) ?? ""));
+  }
+}
+
+/** A CSV file's columns, collected record by record. */
+export class CsvColumns {
+  header: string[] = [];
+  rows = 0;
+  private cols: Column[] = [];
+  private lineNos = new Int32Array(1024);
+
+  /** Adds one record: the first is the header, the rest data rows of the same width. */
+  add(fields: string[], line: number): void {
+    if (this.cols.length === 0) {
+      this.header = checkHeader(fields);
+      this.cols = this.header.map((h, j) => new Column(j === 0 && LABEL_NAMES.test(h)));
+      return;
+    }
+    checkWidth(fields, this.header.length, line);
+    const i = this.rows++;
+    if (i >= this.lineNos.length) {
+      const l = new Int32Array(this.lineNos.length * 2);
+      l.set(this.lineNos);
+      this.lineNos = l;
+    }
+    this.lineNos[i] = line;
+    for (let j = 0; j < fields.length; j++) this.cols[j].add(i, fields[j]);
+  }
+
+  /** The cells of column j (blank → null, number, or text). */
+  cells(j: number): RawCell[] {
+    return this.cols[j].cells(this.rows);
+  }
+
+  /** The line of the file on which data row i (0-based) starts. */
+  line(i: number): number {
+    return i < this.rows ? this.lineNos[i] : i + 2;
+  }
+
+  /** Checks that there was a header and at least one data row. */
+  finish(): this {
+    if (this.cols.length === 0) throw noRows();
+    if (this.rows === 0) throw headerOnly();
+    return this;
+  }
+
+  /** Whether column j holds labels: named like a period column (first only) or mostly not numbers. */
+  isLabel(j: number): boolean {
+    const c = this.cols[j];
+    return c.keepText || (c.nonBlank > 0 && c.numeric * 2 < c.nonBlank);
+  }
+
+  /** Column j's cells as label text. */
+  labels(j: number): string[] {
+    return this.cols[j].labels(this.rows);
+  }
+}
+
 /** Series found in a CSV table. */
 export interface CsvSeries {
   names: string[];
-  series: RawCell[][];
+  /** The cells of series j (made on demand, so a large file holds one series' cells at a time). */
+  column: (j: number) => RawCell[];
   /** The label column's name and values, when there is one. */
   labelColumn: { name: string; values: string[] } | null;
-  /** Line number of each data row. */
-  lines: number[];
+  /** The line of the file of data row i (0-based). */
+  line: (i: number) => number;
+  /** Number of data rows. */
+  rows: number;
 }
 
 /**
- * Splits a table into a label column and series columns. A column is a label column when most
- * of its non-blank values are not numbers, or when it is the first column and is named period,
- * date, month, year, quarter, week, day, time or t (so a column of years is not a series).
+ * Splits columns into a label column and series. A column is a label column when most of its
+ * non-blank values are not numbers, or when it is the first column and is named period, date,
+ * month, year, quarter, week, day, time or t (so a column of years is not a series).
  * @example csvSeries(parseCsv("month,sales\n2024-01,5\n2024-02,6\n")).names // ["sales"]
  */
-export function csvSeries(t: CsvTable): CsvSeries {
+export function csvSeries(source: CsvTable | CsvColumns): CsvSeries {
+  const cols = source instanceof CsvColumns ? source : tableColumns(source);
   const names: string[] = [];
-  const series: RawCell[][] = [];
+  const index: number[] = [];
   let labelColumn: CsvSeries["labelColumn"] = null;
-  t.header.forEach((h, j) => {
-    const cells = t.rows.map((r) => fieldToCell(r[j]));
-    const nonBlank = cells.filter((c) => c !== null);
-    const numeric = nonBlank.filter((c) => typeof c === "number").length;
-    const labelByName = j === 0 && LABEL_NAMES.test(h);
-    if (labelByName || (nonBlank.length > 0 && numeric * 2 < nonBlank.length)) {
-      if (!labelColumn) labelColumn = { name: h || `column ${j + 1}`, values: t.rows.map((r) => r[j].trim()) };
+  cols.header.forEach((h, j) => {
+    if (cols.isLabel(j)) {
+      if (!labelColumn) labelColumn = { name: h || `column ${j + 1}`, values: cols.labels(j) };
       return;
     }
     names.push(h || `column ${j + 1}`);
-    series.push(cells);
+    index.push(j);
   });
-  if (series.length === 0) throw new EngineError("input", "No column of numbers was found. Each series needs a column of numbers under its name.");
-  return { names, series, labelColumn, lines: t.lines };
+  if (names.length === 0) throw new EngineError("input", "No column of numbers was found. Each series needs a column of numbers under its name.");
+  return { names, column: (j) => cols.cells(index[j]), labelColumn, line: (i) => cols.line(i), rows: cols.rows };
+}
+
+function tableColumns(t: CsvTable): CsvColumns {
+  const cols = new CsvColumns();
+  cols.add(t.header, 1);
+  t.rows.forEach((r, i) => cols.add(r, t.lines[i]));
+  return cols.finish();
 }
 
 /** Quotes a field for CSV output when needed. */

@@ -1,11 +1,11 @@
 // The `fanwise` command line: CSV in → CSV (default) or JSON out; errors to stderr, exit 1.
 import * as fs from "fs";
 import * as path from "path";
-import { EngineError, fitLambda, isEngineError, cleanSeries, screenSeries, LambdaMethod, fitForecast, fanTable, totalForecast, Forecaster, Maybe, auditCoverage, backtest } from "../engine";
-import { fieldToCell } from "./csv";
+import { EngineError, RawCell, fitLambda, isEngineError, cleanSeries, screenSeries, LambdaMethod, fitForecast, fanTable, totalForecast, Forecaster, Maybe, auditCoverage, backtest } from "../engine";
 import { buildDemoWorkbook, demoForecastLogCsv, demoMonthlyCsv } from "../demo/quillmere";
 import { fanChartSvg } from "../taskpane/chart/fan-chart";
-import { csvSeries, parseCsv, toCsv, CsvSeries } from "./csv";
+import { csvSeries, toCsv, CsvSeries } from "./csv";
+import { readCsvFile } from "./csv-file";
 
 const USAGE = `fanwise — Box-Cox forecasts with honest means, medians and intervals (CSV in, CSV or JSON out)
 
@@ -77,22 +77,23 @@ function intFlag(p: Parsed, name: string, dflt: number, min: number): number {
   return x;
 }
 
+function fileArgument(p: Parsed, example: string): string {
+  if (p.positional.length !== 1) throw new EngineError("input", p.positional.length === 0 ? `Give the CSV file to read, e.g. ${example}` : `Give exactly one CSV file; got ${p.positional.length} (${p.positional.slice(0, 3).join(", ")}).`);
+  return p.positional[0];
+}
+
 function readSeriesFile(p: Parsed): CsvSeries {
-  if (p.positional.length !== 1) throw new EngineError("input", p.positional.length === 0 ? "Give the CSV file to read, e.g. fanwise screen sales.csv" : `Give exactly one CSV file; got ${p.positional.length}.`);
-  const file = p.positional[0];
-  let text: string;
-  try {
-    text = fs.readFileSync(file, "utf8");
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new EngineError("input", code === "ENOENT" ? `File not found: ${file}` : code === "EISDIR" ? `${file} is a folder, not a CSV file.` : `Cannot read ${file} (${code ?? "error"}).`);
-  }
-  return csvSeries(parseCsv(text));
+  return csvSeries(readCsvFile(fileArgument(p, "fanwise screen sales.csv")));
 }
 
 /** Names a data row by its line in the file. */
 function lineOf(data: CsvSeries): (i: number) => string {
-  return (i) => `line ${data.lines[i] ?? i + 2}`;
+  return (i) => `line ${data.line(i)}`;
+}
+
+/** Replaces "row N" (1-based data rows, as the engine names them) by the file's line. */
+function atLines(message: string, data: CsvSeries): string {
+  return message.replace(/row (\d+)/, (_m, r) => `line ${data.line(Number(r) - 1)}`);
 }
 
 function errorMessage(e: unknown): string {
@@ -104,7 +105,7 @@ function screenCommand(argv: string[], io: Io): number {
   const p = parseArgs(argv, { period: "value", json: "switch" });
   const period = intFlag(p, "period", 1, 1);
   const data = readSeriesFile(p);
-  const results = data.series.map((cells, j) => screenSeries(cells, { period, label: data.names[j], where: lineOf(data) }));
+  const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data) }));
   if (p.flags.has("json")) {
     const series: Record<string, unknown> = {};
     results.forEach((r, j) => {
@@ -143,8 +144,9 @@ function lambdaCommand(argv: string[], io: Io): number {
     [lower, upper] = nums;
   }
   const data = readSeriesFile(p);
-  const results = data.series.map((cells, j) => {
+  const results = data.names.map((_, j) => {
     try {
+      const cells = data.column(j);
       const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data) });
       if (!screen.boxCoxUsable) throw new EngineError("input", screen.message);
       const clean = cleanSeriesAtLines(cells, data, j);
@@ -191,21 +193,18 @@ function fitAll(p: Parsed, data: CsvSeries): { name: string; f?: Forecaster; err
   const period = intFlag(p, "period", 1, 1);
   const method = p.flags.get("method");
   const lambdaFlag = p.flags.get("lambda");
-  return data.series.map((cells, j) => {
-    const name = data.names[j];
+  return data.names.map((name, j) => {
     try {
+      const cells = data.column(j);
       const lambda = lambdaFlag === undefined ? "auto" : String(lambdaFlag);
       if (lambda.toLowerCase() !== "none") {
         const screen = screenSeries(cells, { period, label: name, where: lineOf(data) });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
-      const first = cells.findIndex((c) => typeof c === "number");
       const f = fitForecast(cells, { method: method === undefined ? "auto" : String(method), lambda, period, label: name });
-      void first;
       return { name, f };
     } catch (e) {
-      const msg = errorMessage(e);
-      return { name, error: msg.replace(/row (\d+)/, (_m, r) => `line ${data.lines[Number(r) - 1] ?? r}`) };
+      return { name, error: atLines(errorMessage(e), data) };
     }
   });
 }
@@ -323,19 +322,12 @@ function auditCommand(argv: string[], io: Io): number {
   const p = parseArgs(argv, { actual: "value", lower: "value", upper: "value", level: "value", json: "switch" });
   for (const k of ["actual", "lower", "upper", "level"]) if (!p.flags.has(k)) throw new EngineError("input", `--${k} is required (fanwise audit FILE --actual COL --lower COL --upper COL --level P).`);
   const level = numberFlag(p, "level") as number;
-  if (p.positional.length !== 1) throw new EngineError("input", "Give exactly one CSV file, e.g. fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80");
-  let text: string;
-  try {
-    text = fs.readFileSync(p.positional[0], "utf8");
-  } catch {
-    throw new EngineError("input", `File not found: ${p.positional[0]}`);
-  }
-  const t = parseCsv(text);
+  const t = readCsvFile(fileArgument(p, "fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80"));
   const col = (flag: string) => {
     const name = String(p.flags.get(flag));
     const j = t.header.indexOf(name);
     if (j < 0) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
-    return t.rows.map((r) => fieldToCell(r[j]));
+    return t.cells(j);
   };
   const a = auditCoverage(col("actual"), col("lower"), col("upper"), level, 2);
   if (p.flags.has("json")) {
@@ -359,9 +351,9 @@ function backtestCommand(argv: string[], io: Io): number {
   const period = intFlag(p, "period", 1, 1);
   const first = p.flags.has("first") ? intFlag(p, "first", 2, 2) : undefined;
   const data = readSeriesFile(p);
-  const results = data.series.map((cells, j) => {
+  const results = data.names.map((_, j) => {
     try {
-      return { name: data.names[j], b: backtest(cells, H, { method: String(p.flags.get("method") ?? "auto"), lambda: String(p.flags.get("lambda") ?? "auto"), level, period, first, label: data.names[j] }) };
+      return { name: data.names[j], b: backtest(data.column(j), H, { method: String(p.flags.get("method") ?? "auto"), lambda: String(p.flags.get("lambda") ?? "auto"), level, period, first, label: data.names[j] }) };
     } catch (e) {
       if (isEngineError(e) && /^horizon|must be a percentage|is in percent/.test(e.message)) throw e;
       return { name: data.names[j], error: errorMessage(e) };
@@ -454,12 +446,12 @@ function demoCommand(argv: string[], io: Io): number {
   return 0;
 }
 
-function cleanSeriesAtLines(cells: CsvSeries["series"][number], data: CsvSeries, j: number): ReturnType<typeof cleanSeries> {
+function cleanSeriesAtLines(cells: RawCell[], data: CsvSeries, j: number): ReturnType<typeof cleanSeries> {
   try {
     return cleanSeries(cells, data.names[j], 1);
   } catch (e) {
     // cleanSeries names rows from 1; say which line of the file instead.
-    if (isEngineError(e)) throw new EngineError(e.code, e.message.replace(/row (\d+)/, (_m, r) => `line ${data.lines[Number(r) - 1] ?? r}`));
+    if (isEngineError(e)) throw new EngineError(e.code, atLines(e.message, data));
     throw e;
   }
 }

@@ -1,5 +1,5 @@
 // The stand-alone pane's paste box: tab- or comma-separated text copied from any spreadsheet.
-import { EngineError, RawCell } from "../engine";
+import { EngineError } from "../engine";
 import { csvSeries, parseCsv } from "../cli/csv";
 import type { PaneData } from "./view-model";
 
@@ -20,9 +20,9 @@ export function pastedData(text: string): PaneData {
   const table = parseCsv(csv);
   const s = csvSeries(table);
   return {
-    source: `Pasted table (${s.series.length} series × ${table.rows.length} rows)`,
+    source: `Pasted table (${s.names.length} series × ${table.rows.length} rows)`,
     names: s.names,
-    columns: s.series as RawCell[][],
+    columns: s.names.map((_, j) => s.column(j)),
     rowLabels: s.labelColumn ? s.labelColumn.values : undefined,
     headerRows: 1,
   };

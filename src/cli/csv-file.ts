@@ -1,0 +1,57 @@
+// Reading a CSV file for the command line: in 1 MiB pieces, parsed as they arrive (csv.ts), so the
+// file's text is never held whole.
+import * as fs from "fs";
+import { EngineError } from "../engine";
+import { CsvColumns, CsvRecordReader, notText } from "./csv";
+
+/**
+ * Reads a CSV file in 1 MiB pieces straight into columns; the text is never held whole. UTF-8 (with
+ * or without a BOM) is expected; a file that is not valid UTF-8 is read again as Windows-1252 (what
+ * older spreadsheet programs export). Throws `input` EngineErrors that say what to fix.
+ * @example readCsvFile("sales.csv").header // ["month", "Harbour Street", …]
+ */
+export function readCsvFile(file: string): CsvColumns {
+  let fd: number;
+  try {
+    fd = fs.openSync(file, "r");
+    if (fs.fstatSync(fd).isDirectory()) {
+      fs.closeSync(fd);
+      throw Object.assign(new Error("dir"), { code: "EISDIR" });
+    }
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new EngineError("input", code === "ENOENT" ? `File not found: ${file}` : code === "EISDIR" ? `${file} is a folder, not a CSV file.` : code === "EACCES" ? `No permission to read ${file}.` : `Cannot read ${file} (${code ?? "error"}).`);
+  }
+  try {
+    const first = readWith(fd, "utf-8");
+    if (first !== "not-utf8") return first;
+    return readWith(fd, "windows-1252") as CsvColumns;
+  } finally {
+    fs.closeSync(fd);
+  }
+}
+
+function readWith(fd: number, encoding: "utf-8" | "windows-1252"): CsvColumns | "not-utf8" {
+  const cols = new CsvColumns();
+  const reader = new CsvRecordReader((fields, line) => cols.add(fields, line));
+  const buf = Buffer.allocUnsafe(1 << 20);
+  // fatal: a malformed UTF-8 sequence throws (sequences cut between pieces are joined by stream).
+  const decoder = new TextDecoder(encoding, { fatal: encoding === "utf-8" });
+  let pos = 0;
+  try {
+    for (;;) {
+      const got = fs.readSync(fd, buf, 0, buf.length, pos);
+      if (got === 0) break;
+      pos += got;
+      const bytes = buf.subarray(0, got);
+      if (bytes.indexOf(0) >= 0) throw notText();
+      reader.push(decoder.decode(bytes, { stream: true }));
+    }
+    reader.push(decoder.decode());
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === "ERR_ENCODING_INVALID_ENCODED_DATA") return "not-utf8";
+    throw e;
+  }
+  reader.end();
+  return cols.finish();
+}
