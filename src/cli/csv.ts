@@ -197,20 +197,27 @@ const TEXT = 2;
 
 /** One column stored compactly: numbers in a Float64Array, text only where a cell is text. */
 class Column {
-  nums = new Float64Array(1024);
-  kinds = new Uint8Array(1024);
+  nums = new Float64Array(0);
+  kinds = new Uint8Array(0);
   texts = new Map<number, string>();
   numeric = 0;
   nonBlank = 0;
 
-  constructor(readonly keepText: boolean) {}
+  /**
+   * @param labelByName a period column by its name: never a series, its text kept only when
+   *   `keepText` (the paste box shows labels; the command line does not need them).
+   */
+  constructor(readonly labelByName: boolean, private readonly keepText: boolean) {}
 
   add(i: number, field: string): void {
-    if (i >= this.nums.length) this.grow();
-    if (this.keepText) {
+    if (i >= this.kinds.length) this.reserve(Math.max(1024, Math.ceil(this.kinds.length * 1.5)));
+    if (this.labelByName) {
       const t = field.trim();
       this.kinds[i] = t === "" ? BLANK : TEXT;
-      if (t !== "") { this.texts.set(i, t); this.nonBlank++; }
+      if (t !== "") {
+        this.nonBlank++;
+        if (this.keepText) this.texts.set(i, t);
+      }
       return;
     }
     const c = fieldToCell(field);
@@ -219,20 +226,25 @@ class Column {
     else { this.kinds[i] = TEXT; this.texts.set(i, c as string); this.nonBlank++; }
   }
 
-  private grow(): void {
-    const nums = new Float64Array(this.nums.length * 2);
-    nums.set(this.nums);
-    this.nums = nums;
-    const kinds = new Uint8Array(this.kinds.length * 2);
+  /** Makes room for n rows (a period column named as such keeps no numbers). */
+  reserve(n: number): void {
+    if (n <= this.kinds.length) return;
+    const kinds = new Uint8Array(n);
     kinds.set(this.kinds);
     this.kinds = kinds;
+    if (this.labelByName) return;
+    const nums = new Float64Array(n);
+    nums.set(this.nums);
+    this.nums = nums;
   }
 
   cells(rows: number): RawCell[] {
-    const out: RawCell[] = new Array(rows);
+    // push, not new Array(rows): a long preallocated array starts in V8's slow dictionary mode,
+    // while a pushed one of numbers stays a packed array of unboxed doubles.
+    const out: RawCell[] = [];
     for (let i = 0; i < rows; i++) {
       const k = this.kinds[i];
-      out[i] = k === NUMBER ? this.nums[i] : k === BLANK ? null : (this.texts.get(i) as string);
+      out.push(k === NUMBER ? this.nums[i] : k === BLANK ? null : (this.texts.get(i) as string));
     }
     return out;
   }
@@ -247,24 +259,33 @@ export class CsvColumns {
   header: string[] = [];
   rows = 0;
   private cols: Column[] = [];
-  private lineNos = new Int32Array(1024);
+  private lineNos = new Int32Array(0);
+
+  /** @param keepLabels keep the text of a period column named as such (for row labels). */
+  constructor(private readonly keepLabels = true) {}
 
   /** Adds one record: the first is the header, the rest data rows of the same width. */
   add(fields: string[], line: number): void {
     if (this.cols.length === 0) {
       this.header = checkHeader(fields);
-      this.cols = this.header.map((h, j) => new Column(j === 0 && LABEL_NAMES.test(h)));
+      this.cols = this.header.map((h, j) => new Column(j === 0 && LABEL_NAMES.test(h), this.keepLabels));
       return;
     }
     checkWidth(fields, this.header.length, line);
     const i = this.rows++;
-    if (i >= this.lineNos.length) {
-      const l = new Int32Array(this.lineNos.length * 2);
+    if (i >= this.lineNos.length) this.reserve(Math.max(1024, Math.ceil(this.lineNos.length * 1.5)));
+    this.lineNos[i] = line;
+    for (let j = 0; j < fields.length; j++) this.cols[j].add(i, fields[j]);
+  }
+
+  /** Makes room for about n data rows at once (a reader that knows the file's size estimates it). */
+  reserve(n: number): void {
+    for (const c of this.cols) c.reserve(n);
+    if (n > this.lineNos.length) {
+      const l = new Int32Array(n);
       l.set(this.lineNos);
       this.lineNos = l;
     }
-    this.lineNos[i] = line;
-    for (let j = 0; j < fields.length; j++) this.cols[j].add(i, fields[j]);
   }
 
   /** The cells of column j (blank → null, number, or text). */
@@ -287,7 +308,7 @@ export class CsvColumns {
   /** Whether column j holds labels: named like a period column (first only) or mostly not numbers. */
   isLabel(j: number): boolean {
     const c = this.cols[j];
-    return c.keepText || (c.nonBlank > 0 && c.numeric * 2 < c.nonBlank);
+    return c.labelByName || (c.nonBlank > 0 && c.numeric * 2 < c.nonBlank);
   }
 
   /** Column j's cells as label text. */

@@ -62,6 +62,8 @@ function parseArgs(argv: string[], allowed: Record<string, "value" | "switch">):
         if (v === undefined || (eq < 0 && v.startsWith("--"))) throw new EngineError("input", `--${name} needs a value.`);
         flags.set(name, v);
       }
+    } else if (a.startsWith("-") && a !== "-" && !/^-\d/.test(a)) {
+      throw new EngineError("input", `Unknown option ${a}. Options start with two dashes, e.g. --horizon 12.`);
     } else positional.push(a);
   }
   return { positional, flags };
@@ -171,7 +173,7 @@ function lambdaCommand(argv: string[], io: Io): number {
         : [data.names[j], "", method, "", "", "", "", "", x.message]),
     ));
   }
-  for (const [j, x] of results.entries()) if (!x.ok) io.err(`fanwise: ${data.names[j]}: ${x.message}\n`);
+  for (const [j, x] of results.entries()) if (!x.ok) io.err(`fanwise: ${oneLine(`${data.names[j]}: ${x.message}`)}\n`);
   return 0;
 }
 
@@ -267,7 +269,7 @@ function fanCommand(argv: string[], io: Io): number {
     }
     io.out(toCsv(header, rows));
   }
-  for (const t of tables) if (!("table" in t) || !t.table) io.err(`fanwise: ${t.name}: ${t.error}\n`);
+  for (const t of tables) if (!("table" in t) || !t.table) io.err(`fanwise: ${oneLine(`${t.name}: ${t.error}`)}\n`);
   return 0;
 }
 
@@ -314,7 +316,7 @@ function totalCommand(argv: string[], io: Io): number {
         : [r.name, H, r.method, r.lambda === null ? "none" : r.lambda, r.t.mean.value, r.t.median, r.t.interval[0], r.t.interval[1], r.t.level, r.t.paths, r.t.monteCarloError, [r.t.mean.note, ...r.t.notes].filter(Boolean).join(" ")]),
     ));
   }
-  for (const r of results) if (!("t" in r) || !r.t) io.err(`fanwise: ${r.name}: ${r.error}\n`);
+  for (const r of results) if (!("t" in r) || !r.t) io.err(`fanwise: ${oneLine(`${r.name}: ${r.error}`)}\n`);
   return 0;
 }
 
@@ -371,7 +373,7 @@ function backtestCommand(argv: string[], io: Io): number {
     }
     io.out(toCsv(["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "note"], rows));
   }
-  for (const r of results) if (!r.b) io.err(`fanwise: ${r.name}: ${r.error}\n`);
+  for (const r of results) if (!r.b) io.err(`fanwise: ${oneLine(`${r.name}: ${r.error}`)}\n`);
   return 0;
 }
 
@@ -487,15 +489,20 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         io.out(USAGE);
         return command === undefined ? 1 : 0;
       default:
-        io.err(`fanwise: unknown command "${command}". Commands: screen, lambda, fan, total, audit, backtest, demo (fanwise help for more).\n`);
+        io.err(`fanwise: unknown command "${oneLine(command)}". Commands: screen, lambda, fan, total, audit, backtest, demo (fanwise help for more).\n`);
         return 1;
     }
   } catch (e) {
     if (isEngineError(e)) {
-      io.err(`fanwise: ${e.message}\n`);
+      io.err(`fanwise: ${oneLine(e.message)}\n`);
       return 1;
     }
-    io.err(`fanwise: unexpected problem: ${e instanceof Error ? e.message : String(e)}. Please report it.\n`);
+    io.err(`fanwise: unexpected problem: ${oneLine(e instanceof Error ? e.message : String(e))}. Please report it.\n`);
     return 1;
   }
+}
+
+/** A message on one line (a quoted CSV field may carry line breaks into it). */
+function oneLine(s: string): string {
+  return s.replace(/\s*[\r\n]+\s*/g, " ");
 }

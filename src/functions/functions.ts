@@ -470,7 +470,7 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
  * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
- * @param {number} [first] Length of the first fitting window (default: the smallest the method needs).
+ * @param {number} [first] Length of the first fitting window (default: the smallest the method needs, or the latest 500 origins of a long series).
  * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median.
  */
 export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number): Promise<any[][]> {

@@ -44,11 +44,19 @@ export interface Backtest {
 export interface BacktestOptions extends ForecastOptions {
   /** Interval level in percent (default 95). */
   level?: number;
-  /** Length of the first fitting window (default: the smallest the method needs). */
+  /**
+   * Length of the first fitting window (default: the smallest the method needs, or, on a long
+   * series, the length that leaves the latest {@link DEFAULT_ORIGINS} origins).
+   */
   first?: number;
   /** Called after each origin (done, total), e.g. for a progress bar. */
   onProgress?: (done: number, total: number) => void;
 }
+
+/** Origins checked by default on a long series (the latest ones): each is a refit. */
+export const DEFAULT_ORIGINS = 500;
+/** The most origins a backtest will refit at, whatever `first` says. */
+export const MAX_ORIGINS = 5000;
 
 function smallestLength(method: string, period: number): number {
   const m = parseMethod(method);
@@ -64,16 +72,18 @@ function prepare(cells: readonly RawCell[], horizon: number, options: BacktestOp
   requireLevelPercent(level);
   const period = options.period ?? 1;
   const need = smallestLength(String(options.method ?? "auto"), period);
-  const first = options.first ?? need;
+  const first = options.first ?? Math.max(need, y.length - DEFAULT_ORIGINS);
   if (!Number.isInteger(first) || first < 2) throw new EngineError("input", `first must be a whole number of at least 2 (the length of the first fitting window); got ${first}.`);
   if (first < need) throw new EngineError("input", `first = ${first} is too short for ${options.method ?? "auto"}: it needs at least ${need} values.`);
   if (first + 1 > y.length) throw new EngineError("input", `The first origin (after ${first} values) leaves no room to check a forecast: the series has ${y.length} values. Use a smaller first or a longer series.`);
   if (first + H > y.length) throw new EngineError("input", `The first origin (after ${first} values) leaves no room for ${H} steps: the series has ${y.length} values, so at most ${y.length - first} steps can be checked. Use a smaller horizon or first.`);
+  if (y.length - first > MAX_ORIGINS) throw new EngineError("input", `first = ${first} means ${y.length - first} origins, each a refit; at most ${MAX_ORIGINS} are checked. Use first = ${y.length - MAX_ORIGINS} or more (the default checks the latest ${DEFAULT_ORIGINS}).`);
   return { y, H, first, level, origins: y.length - first };
 }
 
 /**
- * Rolling-origin backtest: for each origin t from `first` to n − 1, refit (λ chosen afresh when it
+ * Rolling-origin backtest: for each origin t from `first` to n − 1 (by default the latest
+ * DEFAULT_ORIGINS origins on a long series; at most MAX_ORIGINS), refit (λ chosen afresh when it
  * is `auto`/`guerrero`/`mle`) on y[0..t), forecast up to H steps, and record, per step ahead, the
  * coverage of the central `level`% interval, the mean interval score (Winkler 1972), and the mean
  * error of the bias-adjusted mean and of the median — what using medians has cost on this history.
