@@ -166,4 +166,13 @@ describe("rolling-origin backtest (Tashman 2000)", () => {
     expect(() => backtest(y, 1, { method: "holt-winters", lambda: 0, period: 12, first: 10 })).toThrow(/too short/);
     expect(() => backtest(y, 1, { level: 0 })).toThrow(EngineError);
   });
+  test("a long series checks its latest 500 origins by default, and refuses more than 5,000 refits (project's own limits)", () => {
+    const y = Array.from({ length: 700 }, (_, i) => 100 + i + (i % 5));
+    const d = backtest(y, 1, { method: "naive", lambda: "none" });
+    expect(d.first).toBe(200);
+    expect(d.rows[0].origins).toBe(500);
+    expect(backtest(y, 1, { method: "naive", lambda: "none", first: 100 }).rows[0].origins).toBe(600);
+    const long = Array.from({ length: 5200 }, (_, i) => 100 + (i % 7));
+    expect(() => backtest(long, 1, { method: "naive", lambda: "none", first: 10 })).toThrow(/5190 origins, each a refit; at most 5000.*first = 200 or more/);
+  });
 });
