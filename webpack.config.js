@@ -11,6 +11,18 @@ const { markdownToHtml } = require("./scripts/readme-html");
 
 const CERTS = path.join(__dirname, ".certs");
 
+// Three @stdlib helpers test the engine for generator support with eval() when they load, and one
+// carries a polynomial compiler built on new Function(); the pane's Content-Security-Policy forbids
+// both. Point them at the plain-closure versions those same packages ship (what they use wherever
+// eval is unavailable), so no eval or new Function is in the bundles at all
+// (test/build/bundles.test.ts checks the bundles, test/taskpane/pane.test.ts the page).
+const stdlib = (p) => path.join(__dirname, "node_modules", "@stdlib", p);
+const NO_EVAL_ALIASES = {
+  "@stdlib/math-base-tools-continued-fraction$": stdlib("math-base-tools-continued-fraction/lib/basic.js"),
+  "@stdlib/math-base-tools-sum-series$": stdlib("math-base-tools-sum-series/lib/basic.js"),
+  "@stdlib/math-base-tools-evalpoly$": stdlib("math-base-tools-evalpoly/lib/main.js"),
+};
+
 /** Emits README.html (the functions' help pages) from README.md. */
 class ReadmeHtmlPlugin {
   apply(compiler) {
@@ -50,7 +62,7 @@ module.exports = (env, argv) => {
       filename: "[name].js",
       clean: true,
     },
-    resolve: { extensions: [".ts", ".js"] },
+    resolve: { extensions: [".ts", ".js"], alias: NO_EVAL_ALIASES },
     module: {
       rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { configFile: "tsconfig.json", compilerOptions: { noEmit: false, sourceMap: true, module: "es2020" } } } }],
     },
@@ -61,7 +73,8 @@ module.exports = (env, argv) => {
       new HtmlWebpackPlugin({
         filename: "taskpane.html",
         template: "./src/taskpane/taskpane.html",
-        chunks: ["functions", "taskpane"],
+        // One bundle on the page: taskpane.js imports the functions module (and its registration).
+        chunks: ["taskpane"],
         scriptLoading: "blocking",
         inject: "body",
       }),

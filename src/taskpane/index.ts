@@ -1,5 +1,9 @@
 // Pane bootstrap (an entry file: side effects allowed here). Inside Excel it follows the selected
 // range; outside Office it runs on the invented demo workbook and offers a paste box.
+// The page hosts the custom functions too (shared runtime): registering them from this bundle
+// means the page loads one copy of the engine, not two (functions.js stays a bundle of its own
+// for the manifest's script entry).
+import "../functions/functions";
 import { RawCell, parseLevels, backtestAsync } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
 import { auditView, checkRows, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData } from "./view-model";

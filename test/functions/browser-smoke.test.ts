@@ -5,6 +5,8 @@
 import * as fs from "fs";
 import { fromRoot, isolatedBrowser, serve } from "../helpers/browser";
 import { check } from "../helpers/reference";
+import "../helpers/custom-functions-shim";
+import * as FW from "../../src/functions/functions";
 
 const EXPECTED = ["BOXCOX", "BOXCOXINV", "YEOJOHNSON", "YEOJOHNSONINV", "FITLAMBDA", "SCREEN", "BTMEAN", "BTQUANTILE", "MEANFROMINTERVAL", "IMPLIEDLAMBDA", "FAN", "QUANTILES", "TOTAL", "MODELINFO", "COVERAGE", "INTERVALSCORE", "PINBALL", "BACKTEST"];
 
@@ -42,7 +44,12 @@ test("the built functions bundle registers every FW function in Chromium and com
         rejected = asError(e);
       }
       const fan = (await m.FAN([[100], [110], [121], [133.1], [146.41]], 2, "drift", 0, null, null, null)) as number[][];
+      // The audit tests use @stdlib's incomplete beta and gamma, which the bundle builds without
+      // their eval-based generator variants (webpack.config.js): same numbers as under Node.
+      const log = Array.from({ length: 40 }, (_, i) => [100 + ((i * 37) % 23) - 11]);
+      const coverage = m.COVERAGE(log, log.map(() => [95]), log.map(() => [105]), 80) as number[][];
       return {
+        coverage: coverage[0],
         keys: Object.keys(m),
         boxcox0: boxcox[0][0],
         boxcoxZero: asError(boxcox[1][0]),
@@ -60,6 +67,10 @@ test("the built functions bundle registers every FW function in Chromium and com
     expect(result.rejected).toMatch(/^#VALUE!\|horizon must be a number/);
     // drift on logs of a 10%-a-year series: the next median is 146.41 × 1.1
     expect(result.fanMedian1).toBeCloseTo(161.051, 9);
+    const log = Array.from({ length: 40 }, (_, i) => [100 + ((i * 37) % 23) - 11]);
+    const node = FW.COVERAGE(log, log.map(() => [95]), log.map(() => [105]), 80)[0] as number[];
+    expect(node.every((v) => typeof v === "number" && Number.isFinite(v))).toBe(true);
+    result.coverage.forEach((v: number, k: number) => expect(Math.abs(v - node[k])).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(node[k]))));
     expect(errors).toEqual([]);
     expect(offSite).toEqual([]);
   } finally {

@@ -14,9 +14,11 @@ const ROOT = path.join(__dirname, "..", "..");
 const TYPES: Record<string, string> = { ".html": "text/html", ".js": "text/javascript", ".json": "application/json", ".css": "text/css", ".png": "image/png", ".svg": "image/svg+xml" };
 
 /** Serves files: `routes` maps a URL path to a file on disk, or to inline content. */
-export async function serve(routes: Record<string, string | { body: string; type: string }>): Promise<{ url: string; close: () => Promise<void> }> {
+export async function serve(routes: Record<string, string | { body: string; type: string }>): Promise<{ url: string; close: () => Promise<void>; requests: string[] }> {
+  const requests: string[] = [];
   const server = http.createServer((req, res) => {
     const p = (req.url ?? "/").split("?")[0];
+    requests.push(`${req.method} ${p}`);
     const r = routes[p];
     if (r === undefined) {
       res.writeHead(404, { "content-type": "text/plain" });
@@ -33,7 +35,7 @@ export async function serve(routes: Record<string, string | { body: string; type
   });
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
   const port = (server.address() as AddressInfo).port;
-  return { url: `http://127.0.0.1:${port}`, close: () => new Promise((resolve) => server.close(() => resolve())) };
+  return { url: `http://127.0.0.1:${port}`, close: () => new Promise((resolve) => server.close(() => resolve())), requests };
 }
 
 /** A browser context in which only 127.0.0.1 is reachable; `offSite` collects what was refused. */
@@ -55,8 +57,8 @@ export function fromRoot(...p: string[]): string {
   return path.join(ROOT, ...p);
 }
 
-/** Serves the built add-in (dist/) on 127.0.0.1. */
-export async function serveDist(): Promise<{ url: string; close: () => Promise<void> }> {
+/** Serves the built add-in (dist/) on 127.0.0.1, plus any `extra` routes (test scripts); `requests` logs what was asked. */
+export async function serveDist(extra: Record<string, string | { body: string; type: string }> = {}): Promise<{ url: string; close: () => Promise<void>; requests: string[] }> {
   const dist = path.join(ROOT, "dist");
   if (!fs.existsSync(path.join(dist, "taskpane.html"))) throw new Error("dist/ is missing: run `npm run build` first (npm test does)");
   const routes: Record<string, string> = {};
@@ -67,7 +69,7 @@ export async function serveDist(): Promise<{ url: string; close: () => Promise<v
     }
   };
   walk(dist, "");
-  return serve(routes);
+  return serve({ ...routes, ...extra });
 }
 
 const OFFICE_CDN = "https://appsforoffice.microsoft.com/lib/1/hosted/";

@@ -9,14 +9,42 @@ import { fromRoot, paneBrowser, serveDist } from "../helpers/browser";
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 type Json = any;
 
-let server: { url: string; close: () => Promise<void> };
+let server: { url: string; close: () => Promise<void>; requests: string[] };
+
+// Runs as a script of the page's own origin (so the page's policy applies to it, unlike code
+// the test harness evaluates): tries what the policy forbids and records what happened.
+const CSP_PROBE = `(async () => {
+  const out = {};
+  try { out.eval = String(eval("1 + 1")); } catch (e) { out.eval = e.name; }
+  try { out.newFunction = String(new Function("return 2")()); } catch (e) { out.newFunction = e.name; }
+  try { out.stringTimer = String(setTimeout("window.timerRan = true", 0) >= 0); } catch (e) { out.stringTimer = e.name; }
+  const s = document.createElement("script");
+  s.textContent = "window.inlineRan = true;";
+  document.head.appendChild(s);
+  out.fetchSelf = await fetch("/collect-fetch", { method: "POST", body: "x" }).then(() => "sent", () => "refused");
+  out.fetchElsewhere = await fetch("https://example.invalid/collect", { method: "POST", body: "x" }).then(() => "sent", () => "refused");
+  try { navigator.sendBeacon("/collect-beacon", "x"); } catch (e) { /* refused */ }
+  const img = new Image();
+  img.src = "https://example.invalid/pixel.png";
+  await new Promise((r) => setTimeout(r, 300));
+  out.inline = String(window.inlineRan === true);
+  out.timer = String(window.timerRan === true);
+  window.cspProbe = out;
+})();`;
 let env: Awaited<ReturnType<typeof paneBrowser>>;
 let page: Page;
 const pageErrors: string[] = [];
 
 beforeAll(async () => {
-  server = await serveDist();
+  server = await serveDist({ "/csp-probe.js": { body: CSP_PROBE, type: "text/javascript" } });
   env = await paneBrowser();
+  // Record every Content-Security-Policy violation the page reports (the listener is installed
+  // by the test harness before any page script runs).
+  await env.context.addInitScript(() => {
+    const w = window as unknown as { cspViolations: { directive: string; blocked: string; source: string }[] };
+    w.cspViolations = [];
+    document.addEventListener("securitypolicyviolation", (e) => w.cspViolations.push({ directive: e.violatedDirective, blocked: e.blockedURI, source: e.sourceFile }));
+  });
   page = await env.context.newPage();
   page.on("pageerror", (e) => pageErrors.push(e.message));
   await page.goto(`${server.url}/taskpane.html`);
@@ -199,5 +227,26 @@ test("a backtest runs from the pane with a progress bar and shows per-step resul
   await page.waitForSelector("#fw-backtest table", { timeout: 20000 });
   expect(await page.locator("#fw-backtest tbody tr").count()).toBe(3);
   expect(await page.isHidden("#fw-backtest-progress")).toBe(true);
+  expect(env.offSite).toEqual([]);
+});
+
+test("the Content-Security-Policy holds: the pane's own code never trips it; eval, inline script and connections are refused", async () => {
+  type V = { directive: string; blocked: string; source: string };
+  const violations = await page.evaluate(() => (window as unknown as { cspViolations: V[] }).cspViolations);
+  // Outside Office, the platform's office.js tries a telemetry frame (with an inline style); the
+  // policy blocks both. Nothing that comes from this origin (bundles, styles, SVG) may be blocked.
+  const fromPlatform = (v: V): boolean => /^https:\/\/appsforoffice\.microsoft\.com\//.test(v.source) || (v.directive === "frame-src" && /^https:\/\//.test(v.blocked));
+  const ours = violations.filter((v) => !fromPlatform(v));
+  expect(ours).toEqual([]);
+  await page.evaluate(() => {
+    const s = document.createElement("script");
+    s.src = "/csp-probe.js";
+    document.head.appendChild(s);
+  });
+  await page.waitForFunction(() => (window as unknown as { cspProbe?: unknown }).cspProbe !== undefined);
+  const probes = await page.evaluate(() => (window as unknown as { cspProbe: unknown }).cspProbe);
+  expect(probes).toEqual({ eval: "EvalError", newFunction: "EvalError", stringTimer: "true", fetchSelf: "refused", fetchElsewhere: "refused", inline: "false", timer: "false" });
+  // nothing reached this origin's server either (the beacon and the fetch were stopped in the page)
+  expect(server.requests.filter((r) => /collect/.test(r))).toEqual([]);
   expect(env.offSite).toEqual([]);
 });

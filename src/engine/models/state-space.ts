@@ -1,11 +1,21 @@
 // The general forecast moments of a linear innovations state-space model
 // y_t = w′x_{t−1} + ε_t, x_t = F x_{t−1} + g ε_t (Hyndman, Koehler, Ord & Snyder 2008, ch. 6):
 // μ_h = w′F^{h−1}x_T and σ_h² = σ²[1 + Σ_{j=1}^{h−1} c_j²], c_j = w′F^{j−1}g.
-// Matrix algebra by mathjs (only the functions used are bundled).
-import { create, multiplyDependencies, matrixDependencies, Matrix } from "mathjs";
+// Matrix algebra by mathjs, built from its factories for exactly `matrix` and `multiply` on plain
+// numbers: the factory graph those two need, less its optional BigNumber, Complex and Fraction
+// types, so neither those libraries nor mathjs's expression parser are in the bundles
+// (test/build/bundles.test.ts checks both).
+import {
+  create, createAddScalar, createConj, createDenseMatrixClass, createDot, createEqualScalar, createMatrix, createMatrixClass,
+  createMultiply, createMultiplyScalar, createSize, createSparseMatrixClass, createTyped, Matrix,
+} from "mathjs";
 import type { StepMoments } from "./types";
+import "../_lib/mathjs-factories";
 
-const math = create({ multiplyDependencies, matrixDependencies });
+const math = create({
+  createTyped, createMatrixClass, createDenseMatrixClass, createSparseMatrixClass, createMatrix, createEqualScalar,
+  createAddScalar, createMultiplyScalar, createConj, createSize, createDot, createMultiply,
+});
 
 /** A state-space form: F (d×d), w (d), g (d) and the final state x_T (d). */
 export interface StateSpaceForm {
