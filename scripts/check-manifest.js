@@ -9,6 +9,8 @@ const path = require("path");
 const { spawnSync } = require("child_process");
 const xml2js = require("xml2js");
 
+/** The least permission the features need: reading the selection, writing a formula and a chart. */
+const LEAST_PERMISSION = "ReadWriteDocument";
 const ORIGIN = "https://localhost:3000";
 
 function arr(x) {
@@ -55,6 +57,11 @@ async function checkManifest(xml, rootDir) {
   if (!shared || attr(shared, "MinVersion") !== "1.1") problems.push('Requirements must list <Set Name="SharedRuntime" MinVersion="1.1"/>');
   const perm = text(first(app, "Permissions"));
   if (!["Restricted", "ReadDocument", "ReadWriteDocument", "ReadAllDocument", "WriteDocument"].includes(perm)) problems.push("Permissions must be one of the manifest's permission levels");
+  // Least privilege: the pane reads the selection and writes one formula and a chart, which is
+  // ReadWriteDocument; nothing needs the whole document's hidden content (ReadAllDocument), and
+  // nothing signs in or calls other services (no WebApplicationInfo / single sign-on).
+  else if (perm !== LEAST_PERMISSION) problems.push(`Permissions must be ${LEAST_PERMISSION}, the least the features need (README, Privacy and security); got ${perm}`);
+  if (first(app, "WebApplicationInfo") || /<WebApplicationInfo\b/.test(xml)) problems.push("WebApplicationInfo (single sign-on) must not be there: Fanwise calls no other service");
 
   const vo = first(app, "VersionOverrides");
   if (!vo) return problems.concat(["VersionOverrides is missing"]);
@@ -172,7 +179,7 @@ async function run(file) {
   return problems;
 }
 
-module.exports = { checkManifest, run };
+module.exports = { checkManifest, run, LEAST_PERMISSION };
 
 if (require.main === module) {
   const file = process.argv[2] || "manifest.xml";

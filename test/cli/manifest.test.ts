@@ -3,7 +3,7 @@
 import * as fs from "fs";
 import * as path from "path";
 // eslint-disable-next-line @typescript-eslint/no-require-imports
-const { checkManifest, run } = require("../../scripts/check-manifest.js");
+const { checkManifest, run, LEAST_PERMISSION } = require("../../scripts/check-manifest.js");
 
 const ROOT = path.join(__dirname, "..", "..");
 const xml = fs.readFileSync(path.join(ROOT, "manifest.xml"), "utf8");
@@ -21,6 +21,8 @@ const breakages: [string, (s: string) => string, RegExp][] = [
   ["http URL", (s) => s.replace("https://localhost:3000/functions.js", "http://localhost:3000/functions.js"), /must be on https:\/\/localhost:3000/],
   ["resid over 32 characters", (s) => s.split("OpenPane.Tooltip").join("OpenPane.Tooltip.That.Is.Far.Too.Long"), /1–32 characters/],
   ["missing icon file", (s) => s.replace("icon-16.png", "icon-17.png"), /icon-17.png/],
+  ["a broader permission", (s) => s.replace("<Permissions>ReadWriteDocument</Permissions>", "<Permissions>ReadAllDocument</Permissions>"), /Permissions must be ReadWriteDocument, the least/],
+  ["single sign-on", (s) => s.replace("</VersionOverrides>", "<WebApplicationInfo><Id>x</Id></WebApplicationInfo></VersionOverrides>"), /WebApplicationInfo/],
   ["Runtimes not first", (s) => s.replace(/<Runtimes>[\s\S]*?<\/Runtimes>/, "").replace("</AllFormFactors>", "</AllFormFactors><Runtimes><Runtime resid=\"Taskpane.Url\" lifetime=\"long\"/></Runtimes>"), /Runtimes must be the first/],
 ];
 
@@ -30,3 +32,20 @@ for (const [what, mutate, pattern] of breakages) {
     expect(problems.join("\n")).toMatch(pattern);
   });
 }
+
+test("ReadWriteDocument is the least permission the features need: the pane writes to the sheet, and only through excel-io.ts", () => {
+  // Office's permission levels (manifest Permissions element): ReadDocument cannot write a formula
+  // or add a chart; ReadWriteDocument can. If the pane ever stops writing, this test says to lower it.
+  expect(LEAST_PERMISSION).toBe("ReadWriteDocument");
+  expect(xml).toMatch(/<Permissions>ReadWriteDocument<\/Permissions>/);
+  const writers: string[] = [];
+  const walk = (dir: string): void => {
+    for (const d of fs.readdirSync(dir, { withFileTypes: true })) {
+      const p = path.join(dir, d.name);
+      if (d.isDirectory()) walk(p);
+      else if (/\.ts$/.test(d.name) && /\.(formulas|formulasR1C1|values)\s*=|charts\.add\(/.test(fs.readFileSync(p, "utf8"))) writers.push(path.relative(ROOT, p));
+    }
+  };
+  walk(path.join(ROOT, "src"));
+  expect(writers).toEqual([path.join("src", "taskpane", "excel-io.ts")]);
+});
