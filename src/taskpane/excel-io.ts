@@ -3,36 +3,57 @@
 import { isHeaderRow, RawCell } from "../engine";
 import type { PaneData } from "./view-model";
 
+/** The most cells the pane reads from a selection (a whole-column selection is first cut to the data). */
+export const MAX_SELECTION_CELLS = 200000;
+
 /**
  * Reads the selected range (address, values, valueTypes; ExcelApi 1.1) as named columns: each
  * column is a series; a first row of text names them. Error cells become text, so the series
- * check counts them instead of failing.
+ * check counts them instead of failing. A selection of more than MAX_SELECTION_CELLS cells (whole
+ * columns, say) is first cut to the part that holds data (ExcelApi 1.4); if it is still too large,
+ * nothing is read and the error says what to select instead.
  */
 export async function readSelection(): Promise<PaneData> {
   return Excel.run(async (ctx) => {
-    const range = ctx.workbook.getSelectedRange();
-    range.load(["address", "values", "valueTypes"]);
+    let range = ctx.workbook.getSelectedRange();
+    range.load(["address", "rowCount", "columnCount"]);
     await ctx.sync();
-    const values = range.values as unknown[][];
-    const types = range.valueTypes as string[][];
-    const cells: RawCell[][] = values.map((row, i) => row.map((v, j) => {
-      const t = types[i][j];
-      if (t === "Empty") return null;
-      if (t === "Double") return typeof v === "number" ? v : Number(v);
-      if (t === "Boolean") return Boolean(v);
-      return String(v);
-    }));
-    const header = cells.length > 1 && isHeaderRow(cells[0]);
-    const body = header ? cells.slice(1) : cells;
-    const width = cells[0]?.length ?? 0;
-    return {
-      source: `Selection ${range.address}`,
-      address: range.address,
-      names: Array.from({ length: width }, (_, j) => (header && typeof cells[0][j] === "string" ? String(cells[0][j]) : `column ${j + 1}`)),
-      columns: Array.from({ length: width }, (_, j) => body.map((r) => r[j])),
-      headerRows: header ? 1 : 0,
-    };
+    if (range.rowCount * range.columnCount > MAX_SELECTION_CELLS && Office.context.requirements.isSetSupported("ExcelApi", "1.4")) {
+      const used = range.getIntersectionOrNullObject(range.worksheet.getUsedRange(true));
+      used.load(["address", "rowCount", "columnCount"]);
+      await ctx.sync();
+      if (used.isNullObject) return { source: `Selection ${range.address} (no data in it)`, address: range.address, names: [], columns: [], headerRows: 0 };
+      range = used;
+    }
+    const n = range.rowCount * range.columnCount;
+    if (n > MAX_SELECTION_CELLS) {
+      throw new Error(`The selection ${range.address} has ${range.rowCount.toLocaleString("en-GB")} rows × ${range.columnCount} columns (${n.toLocaleString("en-GB")} cells); the pane previews up to ${MAX_SELECTION_CELLS.toLocaleString("en-GB")} cells. Select fewer rows or columns; the FW functions in cells take any size.`);
+    }
+    range.load(["values", "valueTypes"]);
+    await ctx.sync();
+    return selectionData(range.address, range.values as unknown[][], range.valueTypes as string[][]);
   });
+}
+
+/** Turns a range's values and value types into the pane's columns (pure, for tests). */
+export function selectionData(address: string, values: unknown[][], types: string[][]): PaneData {
+  const cells: RawCell[][] = values.map((row, i) => row.map((v, j) => {
+    const t = types[i][j];
+    if (t === "Empty") return null;
+    if (t === "Double") return typeof v === "number" ? v : Number(v);
+    if (t === "Boolean") return Boolean(v);
+    return String(v);
+  }));
+  const header = cells.length > 1 && isHeaderRow(cells[0]);
+  const body = header ? cells.slice(1) : cells;
+  const width = cells[0]?.length ?? 0;
+  return {
+    source: `Selection ${address}`,
+    address,
+    names: Array.from({ length: width }, (_, j) => (header && typeof cells[0][j] === "string" ? String(cells[0][j]) : `column ${j + 1}`)),
+    columns: Array.from({ length: width }, (_, j) => body.map((r) => r[j])),
+    headerRows: header ? 1 : 0,
+  };
 }
 
 /** The address of one column of a range address ("Sheet1!B2:H74", column 2 → "Sheet1!D2:D74"). */

@@ -6,7 +6,7 @@
 import "../functions/functions";
 import { RawCell, parseLevels, backtestAsync } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
-import { auditView, checkRows, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData } from "./view-model";
+import { auditView, checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
 import { pastedData } from "./paste";
 import { columnAddress, readSelection, writeFan } from "./excel-io";
 
@@ -19,9 +19,18 @@ interface State {
   lastView: FanView | null;
   lastRenderMs: number;
   renders: number;
+  /** Series check in progress (a wide selection is checked a few columns at a time). */
+  checking: boolean;
+  /** How many slices the last series check took (1 = done in one go). */
+  checkSlices: number;
+  /** Bumped by every new check, so a check overtaken by a newer selection stops. */
+  checkRun: number;
 }
 
-const state: State = { data: demoData(), series: 0, inExcel: false, lastView: null, lastRenderMs: 0, renders: 0 };
+const state: State = { data: demoData(), series: 0, inExcel: false, lastView: null, lastRenderMs: 0, renders: 0, checking: false, checkSlices: 0, checkRun: 0 };
+
+/** Longest stretch the series check works before letting the pane (and Excel) breathe. */
+const CHECK_SLICE_MS = 25;
 
 function demoData(): PaneData {
   const wb = buildDemoWorkbook();
@@ -197,16 +206,68 @@ function showLambdaTyped(): void {
 function renderAll(): void {
   const t0 = performance.now();
   const period = Number($<HTMLInputElement>("fw-period").value) || 1;
-  $("fw-source").textContent = state.data.source;
-  try {
-    renderCheck(checkRows(state.data, Number.isInteger(period) && period >= 1 ? period : 1));
-  } catch (e) {
-    $("fw-check").textContent = e instanceof Error ? e.message : String(e);
-  }
+  const problem = selectionProblem(state.data);
+  $("fw-source").textContent = problem ? `${state.data.source}: ${problem}` : state.data.source;
   renderSeriesSelect();
   renderAuditSelects();
-  renderFan();
+  if (problem) {
+    state.checkRun++;
+    state.checking = false;
+    $("fw-check").textContent = problem;
+    showFanMessage(problem);
+  } else {
+    renderFan();
+    checkSeries(Number.isInteger(period) && period >= 1 ? period : 1);
+  }
   state.lastRenderMs = performance.now() - t0;
+}
+
+function showFanMessage(message: string): void {
+  state.lastView = null;
+  $("fw-chart").replaceChildren();
+  $("fw-readout").replaceChildren();
+  $("fw-table").replaceChildren();
+  $("fw-gap").textContent = "";
+  $("fw-notes").textContent = "";
+  const error = $("fw-error");
+  error.hidden = false;
+  error.textContent = message;
+  state.renders++;
+}
+
+/**
+ * Checks every series for the table. A few series take one slice (done at once, as before); a wide
+ * selection is checked in slices of about CHECK_SLICE_MS with the event loop free in between, so the
+ * pane and Excel stay responsive and the table says how far it has got. A newer selection stops an
+ * older check.
+ */
+function checkSeries(period: number): void {
+  const run = ++state.checkRun;
+  const data = state.data;
+  const n = data.columns.length;
+  const rows: CheckRow[] = [];
+  state.checking = true;
+  state.checkSlices = 0;
+  const slice = (): void => {
+    if (run !== state.checkRun) return;
+    state.checkSlices++;
+    const t0 = performance.now();
+    try {
+      while (rows.length < n && performance.now() - t0 < CHECK_SLICE_MS) rows.push(checkRow(data, rows.length, period));
+    } catch (e) {
+      state.checking = false;
+      $("fw-check").textContent = e instanceof Error ? e.message : String(e);
+      return;
+    }
+    if (rows.length < n) {
+      $("fw-check").textContent = `Checking the series: ${rows.length} of ${n}…`;
+      setTimeout(slice, 0);
+      return;
+    }
+    state.checking = false;
+    renderCheck(rows);
+  };
+  slice();
 }
 
 function renderAuditSelects(): void {
@@ -450,6 +511,8 @@ async function inExcel(): Promise<void> {
   get lastRenderMs(): number { return state.lastRenderMs; },
   get lastFan(): unknown { return state.lastView && state.lastView.ok ? state.lastView.fan : null; },
   get renders(): number { return state.renders; },
+  get checking(): boolean { return state.checking; },
+  get checkSlices(): number { return state.checkSlices; },
 };
 
 function start(): void {

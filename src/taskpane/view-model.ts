@@ -43,19 +43,51 @@ function fmt(x: number | null): string {
  * @example checkRows({ source: "x", names: ["A"], columns: [[1, 0, 2, 3]], headerRows: 0 }, 1)[0].badge // "not Box-Cox ready"
  */
 export function checkRows(data: PaneData, period: number): CheckRow[] {
+  return data.columns.map((_, j) => checkRow(data, j, period));
+}
+
+/**
+ * The series-check row of column j (what {@link checkRows} does for each column), so a caller can
+ * check a wide selection a few columns at a time.
+ * @example checkRow({ source: "x", names: ["A"], columns: [[1, 2, 3, 4]], headerRows: 0 }, 0, 1).ready // true
+ */
+export function checkRow(data: PaneData, j: number, period: number): CheckRow {
   const where = (i: number): string => data.rowLabels?.[i] ?? `row ${i + 1 + data.headerRows}`;
-  return data.columns.map((cells, j) => {
-    const name = data.names[j];
-    const r = screenSeries(cells, { period, label: name, where });
-    const iv = r.lambda ? r.lambda.interval : null;
-    const interval: [number, number] | null = iv && iv[0] !== null && iv[1] !== null ? [iv[0], iv[1]] : null;
-    const lambda = r.suggestedLambda === null ? "–" : interval ? `${fmt(r.suggestedLambda)} (${interval[0].toFixed(2)} to ${interval[1].toFixed(2)})` : fmt(r.suggestedLambda);
-    let badge: string | null = null;
-    if (r.nonPositive > 0) badge = "not Box-Cox ready";
-    else if (r.fix === "too-short" || r.fix === "no-numbers") badge = "too short";
-    else if (r.interiorGaps.length) badge = "gaps";
-    return { name, n: r.n, min: fmt(r.min), blanks: r.blanks, lambda, lambdaInterval: interval, ready: r.boxCoxUsable && r.fix === "none", badge, reason: r.message };
-  });
+  const cells = data.columns[j];
+  const name = data.names[j];
+  const r = screenSeries(cells, { period, label: name, where });
+  const iv = r.lambda ? r.lambda.interval : null;
+  const interval: [number, number] | null = iv && iv[0] !== null && iv[1] !== null ? [iv[0], iv[1]] : null;
+  const lambda = r.suggestedLambda === null ? "–" : interval ? `${fmt(r.suggestedLambda)} (${interval[0].toFixed(2)} to ${interval[1].toFixed(2)})` : fmt(r.suggestedLambda);
+  let badge: string | null = null;
+  if (r.nonPositive > 0) badge = "not Box-Cox ready";
+  else if (r.fix === "too-short" || r.fix === "no-numbers") badge = "too short";
+  else if (r.interiorGaps.length) badge = "gaps";
+  return { name, n: r.n, min: fmt(r.min), blanks: r.blanks, lambda, lambdaInterval: interval, ready: r.boxCoxUsable && r.fix === "none", badge, reason: r.message };
+}
+
+const WHAT_TO_SELECT = "Select the data: one column per series, oldest first, its name in the top cell (e.g. B1:B37 or B1:H74).";
+
+/**
+ * What is wrong with a selection that holds nothing to forecast, in words a user can act on, or
+ * null when there is at least one number to work with.
+ * @example selectionProblem({ source: "x", names: ["column 1"], columns: [["Revenue"]], headerRows: 0 }) // 'The selection is one cell holding text ("Revenue"). Select the data: …'
+ */
+export function selectionProblem(data: PaneData): string | null {
+  const cells = data.columns.flat();
+  if (data.columns.length === 0 || cells.length === 0) return `Nothing is selected. ${WHAT_TO_SELECT}`;
+  if (cells.some((c) => typeof c === "number")) {
+    if (cells.length === 1) return `The selection is one cell (${fmt(cells[0] as number)}); a forecast needs a series of at least 4 values. ${WHAT_TO_SELECT}`;
+    return null;
+  }
+  if (cells.length === 1) {
+    const c = cells[0];
+    if (c === null || c === "") return `The selection is one empty cell. ${WHAT_TO_SELECT}`;
+    const text = String(c);
+    return `The selection is one cell holding ${typeof c === "boolean" ? "TRUE/FALSE" : `text ("${text.length > 24 ? `${text.slice(0, 24)}…` : text}")`}. ${WHAT_TO_SELECT}`;
+  }
+  const blanks = cells.filter((c) => c === null || c === "").length;
+  return `The selection (${data.columns.length} column${data.columns.length === 1 ? "" : "s"}, ${cells.length} cells) holds no numbers${blanks === cells.length ? ", only empty cells" : ", only text or empty cells"}. ${WHAT_TO_SELECT}`;
 }
 
 /** The fan preview's controls. */

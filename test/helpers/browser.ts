@@ -76,10 +76,10 @@ const OFFICE_CDN = "https://appsforoffice.microsoft.com/lib/1/hosted/";
 
 /**
  * Like {@link isolatedBrowser}, but the platform's office.js (and the files it loads next to itself)
- * is served from node_modules instead of the CDN; every other non-loopback request is aborted and
- * recorded.
+ * is served from node_modules instead of the CDN, or replaced by `officeJs` (a stand-in host for
+ * tests); every other non-loopback request is aborted and recorded.
  */
-export async function paneBrowser(): Promise<{ browser: Browser; context: BrowserContext; offSite: string[] }> {
+export async function paneBrowser(options: { officeJs?: string } = {}): Promise<{ browser: Browser; context: BrowserContext; offSite: string[] }> {
   if (!fs.existsSync(CHROMIUM)) throw new Error(`${CHROMIUM} is missing: apt-get install -y chromium (the .ci/run script does)`);
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_FLAGS });
   const context = await browser.newContext({ viewport: { width: 320, height: 1400 }, acceptDownloads: true });
@@ -87,6 +87,9 @@ export async function paneBrowser(): Promise<{ browser: Browser; context: Browse
   const officeDist = path.join(ROOT, "node_modules", "@microsoft", "office-js", "dist");
   await context.route("**/*", (route) => {
     const u = route.request().url();
+    if (u.startsWith(OFFICE_CDN) && options.officeJs !== undefined && u.split("?")[0] === `${OFFICE_CDN}office.js`) {
+      return route.fulfill({ body: options.officeJs, contentType: "text/javascript" });
+    }
     if (u.startsWith(OFFICE_CDN)) {
       const f = path.join(officeDist, u.slice(OFFICE_CDN.length).split("?")[0]);
       if (f.startsWith(officeDist) && fs.existsSync(f)) return route.fulfill({ path: f, contentType: "text/javascript" });

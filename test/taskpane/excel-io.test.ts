@@ -1,7 +1,8 @@
 // excel-io.ts against office-addin-mock: reading a selection with blanks, text and a header row,
 // and writing the FW.FAN formula and the native chart (with the ExcelApi 1.7 check).
 import { OfficeMockObject } from "office-addin-mock";
-import { columnAddress, readSelection, writeFan } from "../../src/taskpane/excel-io";
+import { columnAddress, readSelection, selectionData, writeFan } from "../../src/taskpane/excel-io";
+import { selectionProblem } from "../../src/taskpane/view-model";
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 type Any = any;
@@ -19,6 +20,8 @@ test("reads a selection with a header row, blanks, text and an error cell as nam
       workbook: {
         range: {
           address: "Sheet1!B2:C6",
+          rowCount: 5,
+          columnCount: 2,
           values: [["Harbour Street", "Millbrook"], [100, ""], [110, "closed"], ["", 130], [121, "#N/A"]],
           valueTypes: [["String", "String"], ["Double", "Empty"], ["Double", "String"], ["Empty", "Double"], ["Double", "Error"]],
         },
@@ -43,7 +46,7 @@ test("reads a selection with a header row, blanks, text and an error cell as nam
 
 test("a selection without a header gets column names", async () => {
   const mock = new OfficeMockObject({
-    context: { workbook: { range: { address: "A1:A3", values: [[1], [2], [3]], valueTypes: [["Double"], ["Double"], ["Double"]] }, getSelectedRange: function () { return this.range; } } },
+    context: { workbook: { range: { address: "A1:A3", rowCount: 3, columnCount: 1, values: [[1], [2], [3]], valueTypes: [["Double"], ["Double"], ["Double"]] }, getSelectedRange: function () { return this.range; } } },
     run: async function (callback: (c: unknown) => Promise<unknown>) { return callback(this.context); },
   }) as Any;
   g.Excel = mock;
@@ -126,4 +129,14 @@ test("columnAddress picks one column of the selection", () => {
   expect(columnAddress("Sheet1!B2:H74", 0)).toBe("Sheet1!B2:B74");
   expect(columnAddress("Sheet1!B2:H74", 2)).toBe("Sheet1!D2:D74");
   expect(columnAddress("'My sheet'!$Y$1:$AB$10", 3)).toBe("'My sheet'!AB1:AB10");
+});
+
+describe("selectionProblem says what a selection with nothing to forecast needs (project's own wording)", () => {
+  test("one text cell, one empty cell, one number, a block of text, and real data", () => {
+    expect(selectionProblem(selectionData("C3", [["Revenue"]], [["String"]]))).toMatch(/^The selection is one cell holding text \("Revenue"\)\. Select the data/);
+    expect(selectionProblem(selectionData("C3", [[""]], [["Empty"]]))).toMatch(/^The selection is one empty cell\./);
+    expect(selectionProblem(selectionData("C3", [[42]], [["Double"]]))).toMatch(/^The selection is one cell \(42\); a forecast needs a series of at least 4 values/);
+    expect(selectionProblem(selectionData("A1:B2", [["a", "b"], ["c", ""]], [["String", "String"], ["String", "Empty"]]))).toMatch(/holds no numbers, only text or empty cells/);
+    expect(selectionProblem(selectionData("A1:A3", [["Sales"], [1], [2]], [["String"], ["Double"], ["Double"]]))).toBeNull();
+  });
 });
