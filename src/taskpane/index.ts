@@ -213,7 +213,7 @@ function renderAll(): void {
   if (problem) {
     state.checkRun++;
     state.checking = false;
-    $("fw-check").textContent = problem;
+    $("fw-check").textContent = "Nothing to check: see Data above.";
     showFanMessage(problem);
   } else {
     renderFan();
@@ -287,7 +287,8 @@ function renderAuditSelects(): void {
     sel.value = String(Math.max(0, pick));
   }
   const m = /(\d+(?:\.\d+)?)/.exec(names[picks[1][1]] ?? "");
-  if (m && Number(m[1]) > 0 && Number(m[1]) < 100) $<HTMLInputElement>("fw-audit-level").value = m[1];
+  // A level in the lower end's name ("lower80", "low 95%"); a column number ("column 1") is not one.
+  if (m && Number(m[1]) >= 50 && Number(m[1]) < 100) $<HTMLInputElement>("fw-audit-level").value = m[1];
   $("fw-audit-readout").replaceChildren();
   $("fw-audit-strip").replaceChildren();
   $("fw-audit-verdict").textContent = "";

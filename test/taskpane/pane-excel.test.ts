@@ -3,8 +3,17 @@
 // Excel.run calls excel-io.ts makes. Hostile selections: one text cell, 1,000 × 50 cells, whole
 // columns, and more cells than the pane reads. The pane must stay responsive and say what it needs.
 // Expectations are the project's own (README, "The task pane"), common practice.
+import * as fs from "fs";
+import * as path from "path";
 import type { Page } from "playwright-core";
-import { paneBrowser, serveDist } from "../helpers/browser";
+import { fromRoot, paneBrowser, serveDist } from "../helpers/browser";
+
+/** Writes a screenshot to test-output/ for a person to look at. */
+async function snapshot(page: Page, name: string): Promise<void> {
+  const out = fromRoot("test-output");
+  fs.mkdirSync(out, { recursive: true });
+  await page.screenshot({ path: path.join(out, name), fullPage: false });
+}
 
 // A stand-in for office.js: Office.onReady reports Excel; Excel.run hands the callback a context
 // whose selected range is built from window.fakeSelection (set by each test before load, or changed
@@ -103,7 +112,10 @@ test("a single text cell: the pane says what to select instead, and computes not
   expect(await page.textContent("#fw-error")).toMatch(/one cell holding text/);
   expect(await page.locator("#fw-chart svg").count()).toBe(0);
   expect(await page.locator("#fw-check table").count()).toBe(0);
+  expect(await page.textContent("#fw-check")).toBe("Nothing to check: see Data above.");
+  expect(await page.inputValue("#fw-audit-level")).toBe("80"); // "column 1" is not a level of 1%
   expect(await page.isVisible("#fw-write")).toBe(true); // in Excel: the write section is offered
+  await snapshot(page, "pane-excel-text-cell.png");
   expect(errors).toEqual([]);
   expect(env.offSite).toEqual([]);
   await page.close();
@@ -125,6 +137,7 @@ test("1,000 × 50 cells: checked in slices with frames painted in between, then 
   expect(await page.textContent("#fw-source")).toBe("Selection Sheet1!A1:AX1001");
   expect(await page.locator("#fw-chart svg").count()).toBe(1);
   expect(await page.textContent("#fw-formula")).toMatch(/^=FW\.FAN\(Sheet1!A1:A1001,/);
+  await snapshot(page, "pane-excel-1000x50.png");
   // a control still answers: previewing another series
   const before = (await pane(page)).renders;
   await page.selectOption("#fw-series", "49");
