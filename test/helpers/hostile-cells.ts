@@ -245,8 +245,11 @@ export const auditColumns = fc.record({
 /** How the calls of one fuzz run ended. */
 export interface FuzzTally { runs: number; thrown: number; numbers: number; reasons: Map<string, number> }
 
+/** A computed number in the result: in a table, outside its first column (FW.FAN's step numbers). */
 function hasNumber(v: unknown): boolean {
-  return typeof v === "number" || (Array.isArray(v) && v.some((row) => Array.isArray(row) && row.some((c) => typeof c === "number")));
+  if (typeof v === "number") return true;
+  if (!Array.isArray(v)) return false;
+  return v.some((row) => Array.isArray(row) && row.some((c, j) => typeof c === "number" && (j > 0 || row.length === 1)));
 }
 
 /**
@@ -281,9 +284,10 @@ export async function fuzz<T>(args: fc.Arbitrary<T>, call: (a: T) => unknown, se
 }
 
 /**
- * A runner for one test file: `run(name, args, f, offset, minShare)` fuzzes f and also requires that
- * at least minShare (default 5%) of its calls returned numbers, so a generator that only makes junk (and so never reaches the
- * computing paths) fails instead of passing quietly. The tallies are printed after the file.
+ * A runner for one test file: `run(name, args, f, offset, minShare)` fuzzes f and also requires
+ * that at least minShare (default 5%) of its calls returned computed numbers, so a generator that
+ * only makes junk (and so never reaches the computing paths) fails instead of passing quietly. The
+ * tallies are printed after the file.
  */
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export function fuzzRunner(): (name: string, args: fc.Arbitrary<unknown[]>, f: (...a: any[]) => unknown, seedOffset: number, minShare?: number) => Promise<void> {
