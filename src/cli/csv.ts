@@ -104,37 +104,21 @@ export class CsvRecordReader {
   }
 }
 
-/** A parsed CSV table: header names and rows of raw text fields. */
-export interface CsvTable {
-  header: string[];
-  rows: string[][];
-  /** 1-based line number in the file of each data row (for messages). */
-  lines: number[];
-}
-
 /**
- * Parses CSV text held in memory (the paste box, small files) into a table. Throws an `input`
- * EngineError naming the line for unequal rows or an unterminated quote.
- * @example parseCsv("a,b\n1,2\n").rows // [["1", "2"]]
+ * Parses CSV text held in memory (the paste box) into columns, as {@link readCsvFile} does for a
+ * file. Throws an `input` EngineError naming the line for unequal rows or an unterminated quote.
+ * @example parseCsv("a,b\n1,2\n").rows // 1
  */
-export function parseCsv(text: string): CsvTable {
+export function parseCsv(text: string): CsvColumns {
   if (text.indexOf("\u0000") >= 0) throw notText();
-  let header: string[] | null = null;
-  const rows: string[][] = [];
-  const lines: number[] = [];
-  const reader = new CsvRecordReader((fields, line) => {
-    if (header === null) { header = checkHeader(fields); return; }
-    checkWidth(fields, header.length, line);
-    rows.push(fields);
-    lines.push(line);
-  });
+  const cols = new CsvColumns();
+  const reader = new CsvRecordReader((fields, line) => cols.add(fields, line));
   reader.push(text);
   reader.end();
-  if (header === null) throw noRows();
-  if (rows.length === 0) throw headerOnly();
-  return { header, rows, lines };
+  return cols.finish();
 }
 
+/** The error for a file that is not text. */
 export function notText(): EngineError {
   return new EngineError("input", "The file is not text (it contains NUL bytes). Export the sheet as CSV first.");
 }
@@ -336,8 +320,7 @@ export interface CsvSeries {
  * month, year, quarter, week, day, time or t (so a column of years is not a series).
  * @example csvSeries(parseCsv("month,sales\n2024-01,5\n2024-02,6\n")).names // ["sales"]
  */
-export function csvSeries(source: CsvTable | CsvColumns): CsvSeries {
-  const cols = source instanceof CsvColumns ? source : tableColumns(source);
+export function csvSeries(cols: CsvColumns): CsvSeries {
   const names: string[] = [];
   const index: number[] = [];
   let labelColumn: CsvSeries["labelColumn"] = null;
@@ -351,13 +334,6 @@ export function csvSeries(source: CsvTable | CsvColumns): CsvSeries {
   });
   if (names.length === 0) throw new EngineError("input", "No column of numbers was found. Each series needs a column of numbers under its name.");
   return { names, column: (j) => cols.cells(index[j]), labelColumn, line: (i) => cols.line(i), rows: cols.rows };
-}
-
-function tableColumns(t: CsvTable): CsvColumns {
-  const cols = new CsvColumns();
-  cols.add(t.header, 1);
-  t.rows.forEach((r, i) => cols.add(r, t.lines[i]));
-  return cols.finish();
 }
 
 /** Quotes a field for CSV output when needed. */

@@ -20,7 +20,7 @@ export function pastedData(text: string): PaneData {
   const table = parseCsv(csv);
   const s = csvSeries(table);
   return {
-    source: `Pasted table (${s.names.length} series × ${table.rows.length} rows)`,
+    source: `Pasted table (${s.names.length} series × ${table.rows} rows)`,
     names: s.names,
     columns: s.names.map((_, j) => s.column(j)),
     rowLabels: s.labelColumn ? s.labelColumn.values : undefined,
