@@ -11,10 +11,10 @@ const { markdownToHtml } = require("./scripts/readme-html");
 
 const CERTS = path.join(__dirname, ".certs");
 
-// Three @stdlib helpers test the engine for generator support with eval() when they load, and one
-// carries a polynomial compiler built on new Function(); the pane's Content-Security-Policy forbids
-// both. Point them at the plain-closure versions those same packages ship (what they use wherever
-// eval is unavailable), so no eval or new Function is in the bundles at all
+// Two @stdlib helpers probe the JavaScript runtime for generator support with eval() when they load,
+// and a third carries a polynomial compiler built on new Function(); the pane's Content-Security-
+// Policy forbids both. Point them at the plain-closure versions those same packages ship (what they
+// use wherever eval is unavailable), so no eval or new Function is in the bundles at all
 // (test/build/bundles.test.ts checks the bundles, test/taskpane/pane.test.ts the page).
 const stdlib = (p) => path.join(__dirname, "node_modules", "@stdlib", p);
 const NO_EVAL_ALIASES = {
