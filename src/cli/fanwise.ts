@@ -173,7 +173,7 @@ function lambdaCommand(argv: string[], io: Io): number {
         : [data.names[j], "", method, "", "", "", "", "", x.message]),
     ));
   }
-  for (const [j, x] of results.entries()) if (!x.ok) io.err(`fanwise: ${oneLine(`${data.names[j]}: ${x.message}`)}\n`);
+  for (const [j, x] of results.entries()) if (!x.ok) seriesError(io, data.names[j], x.message);
   return 0;
 }
 
@@ -269,7 +269,7 @@ function fanCommand(argv: string[], io: Io): number {
     }
     io.out(toCsv(header, rows));
   }
-  for (const t of tables) if (!("table" in t) || !t.table) io.err(`fanwise: ${oneLine(`${t.name}: ${t.error}`)}\n`);
+  for (const t of tables) if (!("table" in t) || !t.table) seriesError(io, t.name, t.error);
   return 0;
 }
 
@@ -316,7 +316,7 @@ function totalCommand(argv: string[], io: Io): number {
         : [r.name, H, r.method, r.lambda === null ? "none" : r.lambda, r.t.mean.value, r.t.median, r.t.interval[0], r.t.interval[1], r.t.level, r.t.paths, r.t.monteCarloError, [r.t.mean.note, ...r.t.notes].filter(Boolean).join(" ")]),
     ));
   }
-  for (const r of results) if (!("t" in r) || !r.t) io.err(`fanwise: ${oneLine(`${r.name}: ${r.error}`)}\n`);
+  for (const r of results) if (!("t" in r) || !r.t) seriesError(io, r.name, r.error);
   return 0;
 }
 
@@ -373,7 +373,7 @@ function backtestCommand(argv: string[], io: Io): number {
     }
     io.out(toCsv(["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "note"], rows));
   }
-  for (const r of results) if (!r.b) io.err(`fanwise: ${oneLine(`${r.name}: ${r.error}`)}\n`);
+  for (const r of results) if (!r.b) seriesError(io, r.name, r.error);
   return 0;
 }
 
@@ -500,6 +500,11 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
     io.err(`fanwise: unexpected problem: ${oneLine(e instanceof Error ? e.message : String(e))}. Please report it.\n`);
     return 1;
   }
+}
+
+/** A series that could not be used: its message on stderr, on one line, as "fanwise: name: …". */
+function seriesError(io: Io, name: string, message: string | undefined): void {
+  io.err(`fanwise: ${oneLine(`${name}: ${message ?? ""}`)}\n`);
 }
 
 /** A message on one line (a quoted CSV field may carry line breaks into it). */
