@@ -1,0 +1,12 @@
+// Every fanwise command, in the order help lists them.
+import { Command } from "../command";
+import { auditCommand } from "./audit";
+import { backtestCommand } from "./backtest";
+import { demoCommand } from "./demo";
+import { fanCommand } from "./fan";
+import { lambdaCommand } from "./lambda";
+import { screenCommand } from "./screen";
+import { totalCommand } from "./total";
+
+/** The commands by name, in the order help lists them. */
+export const COMMANDS: readonly Command[] = [screenCommand, lambdaCommand, fanCommand, totalCommand, auditCommand, backtestCommand, demoCommand];

@@ -1,0 +1,61 @@
+// Help text, generated from the commands' declarations (their options, summaries and examples).
+import { Command } from "./command";
+import { optionUsage } from "./options";
+
+const METHODS = `Methods: mean, naive, seasonal-naive, drift, ses, holt, damped, seasonal-ses, holt-winters,
+damped-holt-winters, auto (default: lowest AICc among the smoothing models).
+Lambda: a number, auto (default), guerrero, mle, or none (no transform).`;
+
+const FILES = `FILE is a CSV whose first row names the columns; lines starting with # are comments; a column of
+labels (dates, periods) is skipped; every other column is a series; blank cells are gaps.`;
+
+const CAUTION = `Forecasts are estimates from past patterns; check results before committing money, and follow
+your organisation's forecasting and audit policies.`;
+
+/**
+ * A command's usage line, e.g. "fanwise fan FILE --horizon H [--method M] …".
+ * @example usageLine(screenCommand) // "fanwise screen FILE [--period N] [--json]"
+ */
+export function usageLine(c: Command, pad = 0): string {
+  return ["fanwise", c.name.padEnd(pad), c.args, ...Object.entries(c.options).map(([n, s]) => optionUsage(n, s))].filter(Boolean).join(" ");
+}
+
+/**
+ * The overview printed by `fanwise help` (and by `fanwise` alone).
+ * @example generalHelp(COMMANDS).startsWith("fanwise —") // true
+ */
+export function generalHelp(commands: readonly Command[]): string {
+  const pad = Math.max(...commands.map((c) => c.name.length));
+  return `fanwise — Box-Cox forecasts with honest means, medians and intervals (CSV in, CSV or JSON out)
+
+Usage:
+${commands.map((c) => `  ${usageLine(c, pad)}`).join("\n")}
+  fanwise help COMMAND     (or fanwise COMMAND --help): one command's options and examples
+
+${METHODS}
+
+${FILES}
+${CAUTION}
+`;
+}
+
+/**
+ * The help of one command: usage, its options (from its declaration), details and examples.
+ * @example commandHelp(fanCommand).includes("--horizon H") // true
+ */
+export function commandHelp(c: Command): string {
+  const opts = Object.entries(c.options);
+  const width = Math.max(0, ...opts.map(([n, s]) => (s.type.kind === "switch" ? `--${n}` : `--${n} ${s.value ?? "VALUE"}`).length));
+  const optionLines = opts.map(([n, s]) => {
+    const flag = s.type.kind === "switch" ? `--${n}` : `--${n} ${s.value ?? "VALUE"}`;
+    const extra = s.required ? " (required)" : s.default !== undefined ? ` (default ${s.default})` : "";
+    return `  ${flag.padEnd(width)}  ${s.help}${extra}`;
+  });
+  const parts = [`fanwise ${c.name} — ${c.summary}`, "", `Usage: ${usageLine(c)}`];
+  if (optionLines.length) parts.push("", "Options:", ...optionLines, `  ${"--help".padEnd(width)}  this help`);
+  if (c.details?.length) parts.push("", ...c.details);
+  if (c.args.includes("FILE")) parts.push("", FILES);
+  if (Object.prototype.hasOwnProperty.call(c.options, "method")) parts.push("", METHODS);
+  parts.push("", "Examples:", ...c.examples.map((e) => `  ${e}`), "", CAUTION);
+  return parts.join("\n") + "\n";
+}
