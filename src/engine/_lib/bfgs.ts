@@ -1,0 +1,104 @@
+// Unconstrained quasi-Newton minimisation: BFGS updates of the inverse Hessian (Broyden 1970,
+// Fletcher 1970, Goldfarb 1970, Shanno 1970) with central-difference gradients and a
+// backtracking line search under the Armijo condition (Nocedal & Wright's standard scheme).
+
+/** Result of a BFGS run. */
+export interface BfgsResult {
+  x: number[];
+  fx: number;
+  evaluations: number;
+  converged: boolean;
+}
+
+/**
+ * Central-difference gradient of f at x (step 1e-5·max(1, |x_i|)).
+ * @example numericGradient((x) => x[0] ** 2, [3]) // ≈ [6]
+ */
+export function numericGradient(f: (x: number[]) => number, x: readonly number[], fx?: number): number[] {
+  const g: number[] = new Array(x.length);
+  const xx = x.slice();
+  for (let i = 0; i < x.length; i++) {
+    const h = 1e-5 * Math.max(1, Math.abs(x[i]));
+    xx[i] = x[i] + h;
+    const fp = f(xx);
+    xx[i] = x[i] - h;
+    const fm = f(xx);
+    xx[i] = x[i];
+    g[i] = Number.isFinite(fp) && Number.isFinite(fm) ? (fp - fm) / (2 * h) : fx !== undefined && Number.isFinite(fp) ? (fp - fx) / h : 0;
+  }
+  return g;
+}
+
+/**
+ * Minimises f from x0. Stops when the gradient's largest entry is below `gTol`, when a step
+ * changes f by less than `fTol`·(1 + |f|), or after `maxIterations`.
+ * @example minimizeBfgs((x) => (x[0] - 1) ** 2 + 10 * (x[1] + 2) ** 2, [0, 0]).x // ≈ [1, −2]
+ */
+export function minimizeBfgs(f: (x: number[]) => number, x0: readonly number[], gTol = 1e-7, fTol = 1e-13, maxIterations = 200): BfgsResult {
+  const d = x0.length;
+  let evaluations = 0;
+  const F = (x: number[]): number => {
+    evaluations++;
+    const v = f(x);
+    return Number.isFinite(v) ? v : Infinity;
+  };
+  let x = x0.slice();
+  let fx = F(x);
+  if (d === 0) return { x, fx, evaluations, converged: true };
+  let g = numericGradient(F, x, fx);
+  evaluations += 2 * d;
+  let H = identity(d);
+  let converged = false;
+  for (let iter = 0; iter < maxIterations; iter++) {
+    if (Math.max(...g.map(Math.abs)) < gTol) { converged = true; break; }
+    let p = H.map((row) => -row.reduce((s, v, j) => s + v * g[j], 0));
+    let slope = p.reduce((s, v, i) => s + v * g[i], 0);
+    if (!(slope < 0)) {
+      H = identity(d);
+      p = g.map((v) => -v);
+      slope = -g.reduce((s, v) => s + v * v, 0);
+    }
+    let step = 1;
+    let xn = x;
+    let fn = Infinity;
+    for (let k = 0; k < 40; k++) {
+      xn = x.map((v, i) => v + step * p[i]);
+      fn = F(xn);
+      if (fn <= fx + 1e-4 * step * slope) break;
+      step *= 0.5;
+    }
+    if (!(fn < fx)) {
+      if (H.some((row, i) => row.some((v, j) => v !== (i === j ? 1 : 0)))) { H = identity(d); continue; }
+      converged = true;
+      break;
+    }
+    const gn = numericGradient(F, xn, fn);
+    evaluations += 2 * d;
+    const s = xn.map((v, i) => v - x[i]);
+    const y = gn.map((v, i) => v - g[i]);
+    const sy = s.reduce((acc, v, i) => acc + v * y[i], 0);
+    const small = Math.abs(fx - fn) < fTol * (1 + Math.abs(fn));
+    x = xn;
+    g = gn;
+    const fPrev = fx;
+    fx = fn;
+    if (small && Math.abs(fPrev - fn) >= 0) {
+      if (Math.max(...g.map(Math.abs)) < Math.sqrt(gTol)) { converged = true; break; }
+    }
+    if (sy > 1e-12) {
+      const Hy = H.map((row) => row.reduce((acc, v, j) => acc + v * y[j], 0));
+      const yHy = y.reduce((acc, v, i) => acc + v * Hy[i], 0);
+      const rho = 1 / sy;
+      for (let i = 0; i < d; i++) {
+        for (let j = 0; j < d; j++) {
+          H[i][j] += rho * ((1 + rho * yHy) * s[i] * s[j] - (Hy[i] * s[j] + s[i] * Hy[j]));
+        }
+      }
+    }
+  }
+  return { x, fx, evaluations, converged };
+}
+
+function identity(d: number): number[][] {
+  return Array.from({ length: d }, (_, i) => Array.from({ length: d }, (_, j) => (i === j ? 1 : 0)));
+}

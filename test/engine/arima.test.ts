@@ -1,0 +1,156 @@
+// Seasonal ARIMA held to statsmodels 0.13.5 SARIMAX (test/fixtures/arima/arima.json, made by
+// make_arima.py beside it): at statsmodels' parameters the engine's log-likelihood, forecast means
+// and variances agree to 1e-8 relative; fitted from scratch its log-likelihood is at least
+// statsmodels' − 1e-4. KPSS against statsmodels' kpss (nlags="legacy").
+import * as fs from "fs";
+import * as path from "path";
+import { fitArima } from "../../src/engine/models/arima/fit";
+import { parseArimaMethod, formatArimaOrder, ArimaOrder } from "../../src/engine/models/arima/order";
+import { expandAr, pacfToAr, arToPacf, differencingPolynomial, expandMa } from "../../src/engine/models/arima/polynomial";
+import { armaSystem } from "../../src/engine/models/arima/kalman";
+import { dataset, expectClose } from "../helpers/reference";
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+type Json = any;
+const fixture: Json = JSON.parse(fs.readFileSync(path.join(__dirname, "../fixtures/arima/arima.json"), "utf8"));
+
+function series(c: Json): number[] {
+  const raw = dataset(c.dataset);
+  return c.transform === "log" ? raw.map(Math.log) : raw;
+}
+
+function orderOf(c: Json): ArimaOrder {
+  const [p, d, q] = c.order;
+  const [P, D, Q, m] = c.seasonal_order;
+  return { p, d, q, P, D, Q, m: m || 1, constant: c.trend === "c" };
+}
+
+/** statsmodels' names → ours; its intercept c is the AR equation's constant, so μ = c / (1 − Σa). */
+function paramsOf(c: Json, o: ArimaOrder): { phi: number[]; Phi: number[]; theta: number[]; Theta: number[]; mu: number; sigma2: number } {
+  const q = c.params;
+  const pick = (prefix: string, k: number, step: number): number[] => Array.from({ length: k }, (_, i) => q[`${prefix}${(i + 1) * step}`] ?? 0);
+  const phi = pick("ar.L", o.p, 1);
+  const theta = pick("ma.L", o.q, 1);
+  const Phi = pick("ar.S.L", o.P, o.m);
+  const Theta = pick("ma.S.L", o.Q, o.m);
+  const a = expandAr(phi, Phi, o.m);
+  const mu = o.constant ? q.intercept / (1 - a.reduce((s, v) => s + v, 0)) : 0;
+  return { phi, Phi, theta, Theta, mu, sigma2: q.sigma2 };
+}
+
+describe("seasonal ARIMA at statsmodels SARIMAX's parameters", () => {
+  for (const c of fixture.cases as Json[]) {
+    test(`${c.id}: log-likelihood, forecast means and variances equal the joint normal's (scipy multivariate_normal / numpy, 1e-9)`, () => {
+      const o = orderOf(c);
+      const m = fitArima(series(c), o, paramsOf(c, o));
+      expectClose(m.loglik, c.exact_llf, { rtol: 1e-9 }, `${c.id} log-likelihood`);
+      const f = m.forecast(fixture.horizon);
+      f.forEach((s, i) => {
+        expectClose(s.mean, c.exact_forecast_mean[i], { rtol: 1e-9 }, `${c.id} mean h=${i + 1}`);
+        expectClose(s.sd * s.sd, c.exact_forecast_var[i], { rtol: 1e-9 }, `${c.id} variance h=${i + 1}`);
+      });
+    });
+    test(`${c.id}: agrees with statsmodels 0.13.5 SARIMAX (1e-5: its filter freezes the covariance once it judges it converged)`, () => {
+      const o = orderOf(c);
+      const m = fitArima(series(c), o, paramsOf(c, o));
+      expectClose(m.loglik, c.llf, { rtol: 1e-5 }, `${c.id} log-likelihood`);
+      m.forecast(fixture.horizon).forEach((s, i) => {
+        expectClose(s.mean, c.forecast_mean[i], { rtol: 1e-8 }, `${c.id} mean h=${i + 1}`);
+        expectClose(s.sd * s.sd, c.forecast_var[i], { rtol: 1e-5 }, `${c.id} variance h=${i + 1}`);
+      });
+    });
+  }
+});
+
+describe("seasonal ARIMA fitted from scratch (statsmodels 0.13.5 SARIMAX as the yardstick)", () => {
+  for (const c of fixture.cases as Json[]) {
+    test(`${c.id}: log-likelihood at least statsmodels' − 1e-4`, () => {
+      const o = orderOf(c);
+      const m = fitArima(series(c), o);
+      expect(m.loglik).toBeGreaterThanOrEqual(c.llf - 1e-4);
+      expect(Number.isFinite(m.aicc)).toBe(true);
+    });
+  }
+});
+
+describe("ARIMA algebra (published identities)", () => {
+  test("pacfToAr and arToPacf are inverse (Barndorff-Nielsen & Schou 1973 recursion)", () => {
+    const r = [0.7, -0.4, 0.25];
+    const back = arToPacf(pacfToAr(r)) as number[];
+    back.forEach((v, i) => expectClose(v, r[i], { atol: 1e-14 }, `r${i + 1}`));
+    expect(arToPacf([1.2])).toBeNull();
+  });
+  test("AR(1) stationary variance is σ²/(1 − φ²) (textbook identity, common practice)", () => {
+    expectClose(armaSystem([0.6], []).P0[0], 1 / (1 - 0.36), { rtol: 1e-13 });
+  });
+  test("MA(1) variance is σ²(1 + θ²) (common practice)", () => {
+    expectClose(armaSystem([], [0.5]).P0[0], 1.25, { rtol: 1e-13 });
+  });
+  test("the airline model's MA side has the B^13 cross term θΘ (Box & Jenkins' seasonal model)", () => {
+    const b = expandMa([-0.4], [-0.6], 12);
+    expect(b.length).toBe(13);
+    expectClose(b[0], -0.4, { atol: 0 });
+    expectClose(b[11], -0.6, { atol: 0 });
+    expectClose(b[12], 0.24, { atol: 1e-15 });
+  });
+  test("(1 − B)(1 − B^4) = 1 − B − B^4 + B^5", () => {
+    expect(differencingPolynomial(1, 1, 4)).toEqual([1, -1, 0, 0, -1, 1]);
+  });
+  test("random walk (arima:0,1,0): variance grows as hσ² (METHODS §3 naive rule)", () => {
+    const y = [5, 5.3, 5.1, 5.6, 5.4, 5.9, 6.2, 6.0, 6.4, 6.3, 6.8, 6.6, 7.1, 7.0];
+    const m = fitArima(y, { p: 0, d: 1, q: 0, P: 0, D: 0, Q: 0, m: 1, constant: false });
+    const diffs = y.slice(1).map((v, i) => v - y[i]);
+    const s2 = diffs.reduce((s, v) => s + v * v, 0) / diffs.length;
+    const f = m.forecast(4);
+    f.forEach((s, i) => {
+      expectClose(s.mean, y[y.length - 1], { rtol: 1e-12 }, "mean");
+      expectClose(s.sd * s.sd, (i + 1) * s2, { rtol: 1e-10 }, "variance");
+    });
+  });
+});
+
+describe("ARIMA simulation matches its analytic moments (Monte Carlo, 4 standard errors)", () => {
+  test("airline model on log AirPassengers: per-step means and variances", () => {
+    const w = dataset("AirPassengers").map(Math.log);
+    const m = fitArima(w, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false });
+    const H = 6, N = 20000;
+    const paths = m.simulate(H, N, 11);
+    const f = m.forecast(H);
+    for (let h = 0; h < H; h++) {
+      let s = 0, s2 = 0;
+      for (let i = 0; i < N; i++) { const v = paths[i * H + h]; s += v; s2 += v * v; }
+      const mean = s / N;
+      const v = s2 / N - mean * mean;
+      const sd = f[h].sd;
+      expect(Math.abs(mean - f[h].mean)).toBeLessThan(4 * sd / Math.sqrt(N));
+      // variance of a sample variance of normals: 2σ⁴/(N − 1)
+      expect(Math.abs(v - sd * sd)).toBeLessThan(4 * sd * sd * Math.sqrt(2 / (N - 1)));
+    }
+  });
+});
+
+describe("ARIMA method names (the project's syntax)", () => {
+  test("explicit orders, seasonal and with a constant", () => {
+    expect(parseArimaMethod("arima:0,1,1/0,1,1", 12)).toEqual({ auto: false, order: { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false } });
+    expect(parseArimaMethod("ARIMA:1,1,0+c", 1)).toEqual({ auto: false, order: { p: 1, d: 1, q: 0, P: 0, D: 0, Q: 0, m: 1, constant: true } });
+    expect(parseArimaMethod("arima", 12)).toEqual({ auto: true });
+    expect(formatArimaOrder({ p: 2, d: 0, q: 0, P: 0, D: 0, Q: 0, m: 1, constant: true })).toBe("arima:2,0,0+c");
+  });
+  test.each([
+    ["arima:1,1", /three whole numbers/],
+    ["arima:1.5,1,0", /whole number/],
+    ["arima:-1,1,0", /whole number/],
+    ["arima:0,1,1/0,1,1", /give the period/],
+    ["arima:9,1,0", /at most 5/],
+    ["arima:0,2,1+c", /quadratic trend/],
+  ])("refuses %s with a message", (name, msg) => {
+    expect(() => parseArimaMethod(name as string, 1)).toThrow(msg as RegExp);
+  });
+  test("orders too large for the series are refused with the numbers", () => {
+    expect(() => fitArima([1, 2, 3, 4, 5, 6, 7, 8, 9, 10], { p: 2, d: 1, q: 2, P: 0, D: 0, Q: 0, m: 1, constant: false })).toThrow(/needs at least \d+ values/);
+  });
+  test("a seasonal difference on a series too short after differencing is refused", () => {
+    const y = Array.from({ length: 20 }, (_, i) => 10 + Math.sin(i) + i * 0.1);
+    expect(() => fitArima(y, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false })).toThrow(/needs at least/);
+  });
+});
