@@ -13,7 +13,7 @@ import { solveSymmetric } from "../../_lib/cholesky";
 import type { FittedModel, StepMoments } from "../types";
 import { armaFilter, armaSystem, ArmaFilterResult, ArmaSystem } from "./kalman";
 import { ArimaOrder, arimaTitle, formatArimaOrder } from "./order";
-import { applyDifference, differencingPolynomial, expandAr, expandMa, fromUnit, pacfToAr, arToPacf, toUnit } from "./polynomial";
+import { applyDifference, differencingPolynomial, expandAr, expandMa, pacfToAr, toUnit } from "./polynomial";
 
 const sqrt = Math.sqrt;
 
@@ -58,12 +58,6 @@ function unpack(u: readonly number[], o: ArimaOrder): Omit<ArimaParams, "mu"> {
   const theta = pacfToAr(take(o.q)).map((v) => -v);
   const Theta = pacfToAr(take(o.Q)).map((v) => -v);
   return { phi, Phi, theta, Theta };
-}
-
-function pack(p: Omit<ArimaParams, "mu">): number[] | null {
-  const parts = [arToPacf(p.phi), arToPacf(p.Phi), arToPacf(p.theta.map((v) => -v)), arToPacf(p.Theta.map((v) => -v))];
-  if (parts.some((x) => x === null)) return null;
-  return (parts as number[][]).flat().map((r) => fromUnit(Math.max(-0.9999, Math.min(0.9999, r))));
 }
 
 function system(p: Omit<ArimaParams, "mu">, m: number): ArmaSystem {

@@ -113,7 +113,7 @@ export function armaFilter(sys: ArmaSystem, x: readonly number[], mu: number | "
   const mu0 = typeof mu === "number" ? mu : 0;
   const a = new Float64Array(r); // state for the data
   const c = new Float64Array(r); // state for the column of ones (GLS for μ)
-  let P = P0.slice();
+  const P = P0.slice();
   const TP = new Float64Array(r * r);
   const vx = new Float64Array(n);
   const v1 = new Float64Array(n);
