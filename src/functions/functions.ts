@@ -5,7 +5,7 @@ import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
-import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
+import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs } from "./coerce";
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
@@ -257,7 +257,8 @@ function cell(m: Maybe): number | CustomFunctions.Error {
 interface SeriesArgs { method: string; lambda: string | number; period: number }
 
 function forecastArgs(method: unknown, lambda: unknown, period: unknown): SeriesArgs {
-  const m = optionalKeyword(method, "method", METHODS, "auto");
+  // ARIMA orders are free text in the project's syntax ("arima:0,1,1/0,1,1"); the rest are keywords.
+  const m = typeof method === "string" && isArimaMethod(method) ? parseMethod(method) : optionalKeyword(method, "method", METHODS, "auto");
   return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1) };
 }
 
@@ -283,7 +284,7 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
  * @helpurl https://localhost:3000/README.html#fwfan
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), oldest first, positive numbers.
  * @param {number} horizon How many periods ahead to forecast (a whole number, e.g. 12).
- * @param {string} [method] "auto" (default: lowest AICc among the smoothing models), "naive", "drift", "seasonal-naive", "mean", "ses", "holt", "damped", "seasonal-ses", "holt-winters" or "damped-holt-winters".
+ * @param {string} [method] "auto" (default: lowest AICc among the smoothing models), "naive", "drift", "seasonal-naive", "mean", "ses", "holt", "damped", "seasonal-ses", "holt-winters", "damped-holt-winters", "arima" (automatic seasonal ARIMA) or an ARIMA order such as "arima:0,1,1" or "arima:0,1,1/0,1,1".
  * @param {any} [lambda] Box-Cox λ: a number (0 = log), "auto" (default), "guerrero", "mle" or "none".
  * @param {any[][]} [levels] Interval levels in percent: a range of numbers or text like "80,95" (default 80 and 95).
  * @param {number} [period] Season length: 12 for monthly, 4 for quarterly, 1 for none (default 1).

@@ -14,8 +14,8 @@ const run = fuzzRunner();
 // the draw so 10,000 calls stay within CI's budget while every method is still drawn hundreds of times.
 const method = optional(fc.oneof(
   { weight: 6, arbitrary: fc.constantFrom("mean", "naive", "seasonal-naive", "drift", "NAIVE") },
-  { weight: 3, arbitrary: fc.constantFrom(...METHODS.filter((m) => m !== "auto")) },
-  { weight: 1, arbitrary: fc.constantFrom("auto", "holt winters", "arima", "") },
+  { weight: 3, arbitrary: fc.constantFrom(...METHODS.filter((m) => m !== "auto" && m !== "arima"), "arima:0,1,1", "arima:1,0,0", "arima:0,1,1/0,1,1") },
+  { weight: 1, arbitrary: fc.constantFrom("auto", "holt winters", "arima", "arima:9,1,1", "arima:0,1", "") },
 ));
 const probs = fc.oneof({ weight: 4, arbitrary: goodProb.map((p) => [[p]]) }, { weight: 4, arbitrary: fc.array(goodProb, { minLength: 1, maxLength: 4 }).map((r) => [r]) }, { weight: 1, arbitrary: anyRange });
 

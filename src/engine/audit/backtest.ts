@@ -10,6 +10,9 @@ import { fanTable } from "../models/fan";
 import { fitForecast, ForecastOptions, checkHorizon } from "../models/fit";
 import { isBenchmark, parseMethod } from "../models/methods";
 import { intervalScore } from "./scores";
+import { isArimaMethod, parseArimaMethod } from "../models/arima/order";
+import { arimaMinimumLength } from "../models/arima/fit";
+import type { SmoothingMethod } from "../models/methods";
 
 /** Per-step-ahead results of a backtest. */
 export interface BacktestRow {
@@ -62,7 +65,12 @@ function smallestLength(method: string, period: number): number {
   const m = parseMethod(method);
   if (m === "auto") return Math.max(4, minimumLength("ses", 1));
   if (isBenchmark(m)) return Math.max(4, benchmarkMinimumLength(m, period));
-  return minimumLength(m, period);
+  if (isArimaMethod(m)) {
+    const spec = parseArimaMethod(m, period);
+    // auto: enough for the four starting models with a seasonal difference (two seasons and more)
+    return spec.auto ? Math.max(20, period > 1 ? 3 * period : 0) : arimaMinimumLength(spec.order);
+  }
+  return minimumLength(m as SmoothingMethod, period);
 }
 
 function prepare(cells: readonly RawCell[], horizon: number, options: BacktestOptions): { y: number[]; H: number; first: number; level: number; origins: number } {

@@ -227,11 +227,20 @@ export function describeForecaster(f: Forecaster): DescriptionRow[] {
   const rows: DescriptionRow[] = [["method", f.method]];
   rows.push(["lambda", f.lambda === null ? "none" : f.lambda]);
   rows.push(["lambda source", f.lambdaSource]);
-  if (f.model) for (const [k, v] of Object.entries(f.model.params)) rows.push([k, v]);
+  const arima = f.model as (typeof f.model & { standardErrors?: Readonly<Record<string, number>> | null; nobs?: number; title: string }) | null;
+  if (arima && arima.standardErrors !== undefined) rows.push(["model", arima.title]);
+  if (f.model) {
+    for (const [k, v] of Object.entries(f.model.params)) {
+      rows.push([k, v]);
+      const se = arima?.standardErrors?.[k];
+      if (se !== undefined) rows.push([`${k} standard error`, se]);
+    }
+  }
   rows.push(["sigma", f.model ? f.model.sigma : 0]);
   rows.push(["loglik", f.model ? f.model.loglik : "n/a (constant series)"]);
   rows.push(["AICc", f.model ? f.model.aicc : "n/a (constant series)"]);
   rows.push(["n", f.n]);
+  if (arima && arima.nobs !== undefined) rows.push(["differences used", arima.nobs]);
   if (f.auto) rows.push(["AICc margin over next best", f.auto.margin]);
   return rows;
 }

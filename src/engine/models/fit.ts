@@ -10,7 +10,10 @@ import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
 import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
 import { fitBenchmark } from "./benchmarks";
 import { fitSmoothing } from "./ets";
-import { isBenchmark, MethodName, parseMethod } from "./methods";
+import { isBenchmark, MethodName, parseMethod, SmoothingMethod } from "./methods";
+import { isArimaMethod, parseArimaMethod } from "./arima/order";
+import { fitArima } from "./arima/fit";
+import { autoArima } from "./arima/auto";
 import { AutoChoice, fitAuto } from "./select";
 import type { FittedModel, StepMoments } from "./types";
 
@@ -98,6 +101,7 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   if (typeof period !== "number" || !Number.isInteger(period) || period < 1) {
     throw new EngineError("input", `period must be a whole number of at least 1 (12 for monthly data, 4 for quarterly, 1 for none); got ${String(period)}.`);
   }
+  if (isArimaMethod(requestedMethod)) parseArimaMethod(requestedMethod, period); // a seasonal order needs a period
   const seasonalMethod = requestedMethod === "seasonal-naive" || requestedMethod === "seasonal-ses" || requestedMethod === "holt-winters" || requestedMethod === "damped-holt-winters";
   if (seasonalMethod && period < 2) {
     throw new EngineError("input", `${requestedMethod} is seasonal: give the period (12 for monthly data, 4 for quarterly).`);
@@ -168,10 +172,20 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
     auto = fitAuto(w, period);
     model = auto.model;
     notes.push(`auto chose ${model.method} (lowest AICc${auto.candidates.length > 1 ? `, ${auto.margin.toFixed(1)} below the next best` : ""}).`);
+  } else if (isArimaMethod(requestedMethod)) {
+    const spec = parseArimaMethod(requestedMethod, period);
+    if (spec.auto) {
+      const search = autoArima(w, period);
+      model = search.model;
+      notes.push(...search.notes);
+    } else {
+      model = fitArima(w, spec.order);
+    }
+    notes.push(...((model as { notes?: readonly string[] }).notes ?? []));
   } else if (isBenchmark(requestedMethod)) {
     model = fitBenchmark(w, requestedMethod, period);
   } else {
-    model = fitSmoothing(w, requestedMethod, period);
+    model = fitSmoothing(w, requestedMethod as SmoothingMethod, period);
   }
   const m = model;
   return Object.freeze({

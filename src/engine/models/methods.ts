@@ -1,13 +1,15 @@
 import { EngineError } from "../errors";
+import { isArimaMethod, parseArimaMethod } from "./arima/order";
 
 /** Forecasting methods, by their trade names. */
 export const METHODS = [
   "mean", "naive", "seasonal-naive", "drift",
   "ses", "holt", "damped", "seasonal-ses", "holt-winters", "damped-holt-winters",
-  "auto",
+  "arima", "auto",
 ] as const;
 
-export type MethodName = (typeof METHODS)[number];
+/** A method name: one of METHODS, or an ARIMA order in the project's syntax (`arima:p,d,q/P,D,Q`). */
+export type MethodName = (typeof METHODS)[number] | `arima:${string}`;
 export type SmoothingMethod = "ses" | "holt" | "damped" | "seasonal-ses" | "holt-winters" | "damped-holt-winters";
 export type BenchmarkMethod = "mean" | "naive" | "seasonal-naive" | "drift";
 
@@ -34,8 +36,13 @@ export function isBenchmark(m: MethodName): m is BenchmarkMethod {
  * @example parseMethod("Holt-Winters") // "holt-winters"
  */
 export function parseMethod(name: unknown): MethodName {
-  const k = typeof name === "string" ? name.trim().toLowerCase() : "";
+  const k = typeof name === "string" ? name.trim().toLowerCase().replace(/\s+/g, "") : "";
+  if (k !== "arima" && isArimaMethod(k)) {
+    // Syntax and limits checked here (the period is checked when the model is fitted).
+    parseArimaMethod(k, 2);
+    return k as MethodName;
+  }
   const hit = (METHODS as readonly string[]).find((m) => m === k);
-  if (!hit) throw new EngineError("input", `Unknown method "${String(name)}". Use one of: ${METHODS.join(", ")}.`);
+  if (!hit) throw new EngineError("input", `Unknown method "${String(name)}". Use one of: ${METHODS.join(", ")}, or an ARIMA order such as "arima:0,1,1" or "arima:0,1,1/0,1,1".`);
   return hit as MethodName;
 }

@@ -182,7 +182,7 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
   const moments = (H: number): { mean: number[]; cov: Float64Array } => forecastMoments(sys, filt, coefficients.mu, c, lastW, sigma2, H);
   const title = arimaTitle(o);
   return Object.freeze({
-    method: "arima" as never,
+    method: formatArimaOrder(o) as `arima:${string}`,
     title,
     n,
     period: o.m,
