@@ -3,7 +3,9 @@ import { Command } from "./command";
 import { optionUsage } from "./options";
 
 const METHODS = `Methods: mean, naive, seasonal-naive, drift, ses, holt, damped, seasonal-ses, holt-winters,
-damped-holt-winters, auto (default: lowest AICc among the smoothing models).
+damped-holt-winters, auto (default: lowest AICc among the smoothing models), arima (automatic
+seasonal ARIMA) or an ARIMA order: arima:p,d,q or arima:p,d,q/P,D,Q, +c for a constant (arima:0,1,0+c
+is the random walk with drift).
 Lambda: a number, auto (default), guerrero, mle, or none (no transform).`;
 
 const FILES = `FILE is a CSV whose first row names the columns; lines starting with # are comments; a column of
