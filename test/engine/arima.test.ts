@@ -7,7 +7,7 @@ import * as path from "path";
 import { fitArima } from "../../src/engine/models/arima/fit";
 import { parseArimaMethod, formatArimaOrder, ArimaOrder } from "../../src/engine/models/arima/order";
 import { expandAr, pacfToAr, arToPacf, differencingPolynomial, expandMa } from "../../src/engine/models/arima/polynomial";
-import { armaSystem } from "../../src/engine/models/arima/kalman";
+import { armaSystem, armaFilter } from "../../src/engine/models/arima/kalman";
 import { kpss, canovaHansen, VM_CRITICAL_5 } from "../../src/engine/models/arima/unit-root";
 import { autoArima } from "../../src/engine/models/arima/auto";
 import { createRandom } from "../../src/engine/_lib/random";
@@ -77,11 +77,43 @@ describe("seasonal ARIMA fitted from scratch (statsmodels 0.13.5 SARIMAX as the 
 });
 
 describe("ARIMA algebra (published identities)", () => {
+  test("the Chandrasekhar recursions (Morf, Sidhu & Kailath 1974) give the full filter's likelihood and innovations", () => {
+    const x = dataset("AirPassengers").map(Math.log);
+    const dx = x.slice(13).map((v, t) => v - x[t + 12] - x[t + 1] + x[t]);
+    for (const [ar, ma] of [[[0.5, 0.2], [-0.4]], [[], expandMa([-0.4], [-0.55], 12)], [expandAr([0.3], [0.6], 12), [0.2]]] as number[][][]) {
+      const sys = armaSystem(ar, ma);
+      for (const mu of ["none", "estimate"] as const) {
+        const full = armaFilter(sys, dx, mu, true);
+        const fast = armaFilter(sys, dx, mu, false);
+        expectClose(fast.loglik, full.loglik, { rtol: 1e-12 }, "loglik");
+        expectClose(fast.mu, full.mu, { rtol: 1e-10, atol: 1e-14 }, "mu");
+        fast.F.forEach((f, t) => expectClose(f, full.F[t], { rtol: 1e-10 }, `F_${t}`));
+      }
+    }
+  });
   test("pacfToAr and arToPacf are inverse (Barndorff-Nielsen & Schou 1973 recursion)", () => {
     const r = [0.7, -0.4, 0.25];
     const back = arToPacf(pacfToAr(r)) as number[];
     back.forEach((v, i) => expectClose(v, r[i], { atol: 1e-14 }, `r${i + 1}`));
     expect(arToPacf([1.2])).toBeNull();
+  });
+  test("the stationary state covariance equals the series Σ_k T^k RR′ T′^k summed directly (definition)", () => {
+    const cases: [number[], number[]][] = [[[0.5, 0.2], [-0.4]], [expandAr([0.3], [0.6], 12), [0.2]], [expandAr([0.5, -0.3], [0.4], 4), expandMa([0.3], [-0.5], 4)], [[0.9], [0.5, 0.25]]];
+    for (const [ar, ma] of cases) {
+      const sys = armaSystem(ar, ma);
+      const r = sys.r;
+      // brute force: iterate P ← T P T′ + RR′ from 0 for many steps
+      let P = new Float64Array(r * r);
+      for (let it = 0; it < 4000; it++) {
+        const next = new Float64Array(r * r);
+        for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) {
+          const ai = i < ar.length ? ar[i] : 0, aj = j < ar.length ? ar[j] : 0;
+          next[i * r + j] = ai * aj * P[0] + ai * (j + 1 < r ? P[j + 1] : 0) + aj * (i + 1 < r ? P[(i + 1) * r] : 0) + (i + 1 < r && j + 1 < r ? P[(i + 1) * r + j + 1] : 0) + sys.R[i] * sys.R[j];
+        }
+        P = next;
+      }
+      for (let i = 0; i < r * r; i++) expectClose(sys.P0[i], P[i], { rtol: 1e-9, atol: 1e-12 }, `P0[${i}]`);
+    }
   });
   test("AR(1) stationary variance is σ²/(1 − φ²) (textbook identity, common practice)", () => {
     expectClose(armaSystem([0.6], []).P0[0], 1 / (1 - 0.36), { rtol: 1e-13 });

@@ -62,7 +62,7 @@ export function autoArima(w: readonly number[], m: number): ArimaSearch {
     if (cache.size >= MAX_MODELS) return null;
     let model: ArimaModel | null = null;
     try {
-      model = fitArima(w, o);
+      model = fitArima(w, o, undefined, false);
       if (!Number.isFinite(model.aicc)) model = null;
     } catch {
       model = null;
@@ -103,5 +103,6 @@ export function autoArima(w: readonly number[], m: number): ArimaSearch {
     if (cache.size >= MAX_MODELS) { notes.push(`The search stopped after ${MAX_MODELS} models with the best so far.`); break; }
   }
   notes.push(`Stepwise search by AICc (Hyndman & Khandakar 2008): ${tried.length} models tried; ${arimaTitle(best.order)} has the lowest AICc.`);
-  return { model: best, tried, notes };
+  // The chosen model again, with the standard errors of its coefficients (skipped during the search).
+  return { model: fitArima(w, best.order), tried, notes };
 }

@@ -102,7 +102,7 @@ function observedMean(x: readonly number[]): number {
  * constant and σ² (k), with the number of observed differences as n.
  * @example fitArima(logAirPassengers, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false }).coefficients.theta[0] // ≈ −0.40
  */
-export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaParams & { sigma2?: number }): ArimaModel {
+export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaParams & { sigma2?: number }, withStandardErrors = true): ArimaModel {
   const o = order;
   const c = differencingPolynomial(o.d, o.D, o.m);
   const K = c.length - 1;
@@ -137,7 +137,7 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
     const cssObjective = (u: number[]): number => Math.log(css(x, unpack(u, o), o.m, mu0));
     const mlObjective = (u: number[]): number => {
       try {
-        const f = armaFilter(system(unpack(u, o), o.m), x, muMode);
+        const f = armaFilter(system(unpack(u, o), o.m), x, muMode, false);
         return -f.loglik;
       } catch {
         return Infinity;
@@ -176,7 +176,7 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
   const sigma = sqrt(sigma2);
   const residuals: number[] = Array.from(filt.innovations);
   const named = paramRecord(coefficients, o);
-  const standardErrors = fixed ? null : hessianErrors(x, coefficients, o);
+  const standardErrors = fixed || !withStandardErrors ? null : hessianErrors(x, coefficients, o);
 
   const lastW = w.slice(n - K);
   const moments = (H: number): { mean: number[]; cov: Float64Array } => forecastMoments(sys, filt, coefficients.mu, c, lastW, sigma2, H);
@@ -230,7 +230,7 @@ function hessianErrors(x: readonly number[], p: ArimaParams, o: ArimaOrder): Rec
     const phi = take(o.p), theta = take(o.q), Phi = take(o.P), Theta = take(o.Q);
     const mu = o.constant ? v[i] : 0;
     try {
-      return -armaFilter(system({ phi, Phi, theta, Theta }, o.m), x, o.constant ? mu : "none").loglik;
+      return -armaFilter(system({ phi, Phi, theta, Theta }, o.m), x, o.constant ? mu : "none", false).loglik;
     } catch {
       return NaN;
     }

@@ -1,0 +1,68 @@
+#!/usr/bin/env node
+// ARIMA benchmark (part of `npm run bench`): fitting a given seasonal ARIMA(0,1,1)(0,1,1)12 and the
+// automatic search on monthly series, side by side with statsmodels' SARIMAX(...).fit() in the same
+// run (ratios, not absolute times: these machines are noisy). Not a test: it asserts nothing.
+"use strict";
+const fs = require("fs");
+const os = require("os");
+const path = require("path");
+const { spawnSync } = require("child_process");
+const engine = require("../build/engine");
+
+const COUNT = Number(process.env.FANWISE_BENCH_ARIMA || 200);
+const LENGTH = 120;
+
+function series() {
+  // Log-scale monthly series from a seasonal ARIMA(0,1,1)(0,1,1)12 with random coefficients,
+  // each with its own level and noise (seeded).
+  const rng = engine.createRandom(18);
+  const out = new Float64Array(COUNT * LENGTH);
+  for (let s = 0; s < COUNT; s++) {
+    const theta = -0.2 - 0.6 * rng.uniform();
+    const Theta = -0.2 - 0.6 * rng.uniform();
+    const sd = 0.01 + 0.05 * rng.uniform();
+    const e = [];
+    const w = [];
+    for (let t = 0; t < LENGTH; t++) {
+      const et = sd * rng.normal();
+      e.push(et);
+      const back = (k) => (t - k >= 0 ? e[t - k] : 0);
+      const x = et + theta * back(1) + Theta * back(12) + theta * Theta * back(13);
+      const prev = (k) => (t - k >= 0 ? w[t - k] : 5 + 0.2 * Math.sin((2 * Math.PI * (t - k)) / 12));
+      w.push(x + prev(1) + prev(12) - prev(13));
+    }
+    out.set(w, s * LENGTH);
+  }
+  return out;
+}
+
+function time(f) {
+  const t0 = process.hrtime.bigint();
+  const r = f();
+  return { seconds: Number(process.hrtime.bigint() - t0) / 1e9, result: r };
+}
+
+const data = series();
+const rows = Array.from({ length: COUNT }, (_, s) => Array.from(data.subarray(s * LENGTH, (s + 1) * LENGTH)));
+const airline = { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false };
+const ours = time(() => rows.map((w) => engine.fitArima(w, airline).loglik));
+console.log(`ARIMA(0,1,1)(0,1,1)12 on ${COUNT} series × ${LENGTH}: Fanwise ${ours.seconds.toFixed(2)} s`);
+const python = "/usr/bin/python3";
+let sm = null;
+if (fs.existsSync(python)) {
+  const file = path.join(os.tmpdir(), `fanwise-arima-${process.pid}.f64`);
+  fs.writeFileSync(file, Buffer.from(data.buffer));
+  const r = spawnSync(python, [path.join(__dirname, "statsmodels_arima.py"), file, String(COUNT), String(LENGTH), "0,1,1", "0,1,1"], { encoding: "utf8" });
+  fs.unlinkSync(file);
+  if (r.status === 0) sm = JSON.parse(r.stdout.trim().split("\n").pop());
+  else console.log(`statsmodels side did not run: ${(r.stderr || "").trim().split("\n").pop()}`);
+}
+if (sm) {
+  let asGood = 0, worst = 0;
+  ours.result.forEach((ll, i) => { const d = sm.llf[i] - ll; if (d <= 1e-4) asGood++; if (d > worst) worst = d; });
+  console.log(`  statsmodels SARIMAX.fit: ${sm.seconds.toFixed(2)} s → Fanwise is ${(sm.seconds / ours.seconds).toFixed(1)}× faster; likelihood as good (within 1e-4) on ${(100 * asGood / COUNT).toFixed(1)}% of series, worst shortfall ${worst.toExponential(2)}`);
+} else console.log("  (install Debian's python3-statsmodels for the side-by-side figure)");
+const autoCount = Math.min(COUNT, Number(process.env.FANWISE_BENCH_ARIMA_AUTO || 50));
+const auto = time(() => rows.slice(0, autoCount).map((w) => engine.autoArima(w, 12)));
+const models = auto.result.reduce((s, r) => s + r.tried.length, 0);
+console.log(`automatic ARIMA on ${autoCount} of them: ${(1000 * auto.seconds / autoCount).toFixed(0)} ms per series, ${(models / autoCount).toFixed(1)} models per series (${(1000 * auto.seconds / models).toFixed(1)} ms per model)`);
