@@ -11,6 +11,7 @@ import { armaSystem, armaFilter } from "../../src/engine/models/arima/kalman";
 import { kpss, canovaHansen, VM_CRITICAL_5 } from "../../src/engine/models/arima/unit-root";
 import { autoArima } from "../../src/engine/models/arima/auto";
 import { createRandom } from "../../src/engine/_lib/random";
+import { backtest } from "../../src/engine/audit/backtest";
 import { dataset, expectClose } from "../helpers/reference";
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
@@ -242,5 +243,32 @@ describe("automatic ARIMA (stepwise search, Hyndman & Khandakar 2008)", () => {
     const s = autoArima(y, 1);
     expect(s.notes.join(" ")).toMatch(/KPSS after 0 differences: [0-9.]+ > 0.463/);
     expect(s.model.order.d).toBe(1);
+  });
+});
+
+describe("ARIMA intervals in a rolling-origin backtest (seeded simulation; Tashman 2000)", () => {
+  test("80% one-step intervals of arima:0,1,1 on simulated ARIMA(0,1,1) data cover about 80% (within 3 binomial standard errors)", () => {
+    const rng = createRandom(2026);
+    let hits = 0, total = 0;
+    for (let s = 0; s < 6; s++) {
+      const y: number[] = [];
+      let level = 100, ePrev = 0;
+      for (let t = 0; t < 110; t++) {
+        const e = rng.normal();
+        level += e - 0.5 * ePrev;
+        ePrev = e;
+        y.push(level);
+      }
+      const bt = backtest(y, 1, { method: "arima:0,1,1", lambda: "none", level: 80, first: 60 });
+      const row = bt.rows[0];
+      hits += (row.coverage as number) * row.origins;
+      total += row.origins;
+    }
+    const cover = hits / total;
+    const se = Math.sqrt((0.8 * 0.2) / total);
+    expect(Math.abs(cover - 0.8)).toBeLessThan(3 * se);
+  });
+  test("a non-stationary AR part given as parameters is refused with what to do (an explosive fit)", () => {
+    expect(() => armaSystem([1.2], [])).toThrow(/not stationary.*difference/);
   });
 });
