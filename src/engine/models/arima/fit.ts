@@ -40,7 +40,11 @@ export interface ArimaModel extends FittedModel {
   readonly notes: readonly string[];
 }
 
-/** Smallest number of observed differences for an order: enough for the parameters and some. */
+/**
+ * Smallest series an order accepts: the values used up by differencing, then enough for the
+ * parameters (twice their number plus two, at least 8; common practice).
+ * @example arimaMinimumLength({ p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false }) // 21
+ */
 export function arimaMinimumLength(o: ArimaOrder): number {
   const k = o.p + o.q + o.P + o.Q + (o.constant ? 1 : 0) + 1;
   return o.d + o.D * o.m + Math.max(2 * k + 2, 8);
