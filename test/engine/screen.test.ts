@@ -59,15 +59,16 @@ describe("screenSeries counts what a user needs to know", () => {
   });
 });
 
-describe("cleanSeries trims the ends and refuses interior gaps", () => {
+describe("cleanSeries trims the ends and marks interior gaps as missing", () => {
   test("leading and trailing blanks are trimmed and counted", () => {
     const c = cleanSeries([null, null, 3, 4, 5, ""]);
     expect(c.values).toEqual([3, 4, 5]);
     expect(c.leadingBlanks).toBe(2);
     expect(c.trailingBlanks).toBe(1);
   });
-  test("an interior blank is refused, naming its row", () => {
-    expect(() => cleanSeries([3, null, 5], "Millbrook", 2)).toThrow(/Millbrook has a blank in row 3/);
+  test("an interior blank is a missing observation (NaN at its place); too many are refused, naming the rows", () => {
+    expect(cleanSeries([3, 4, null, 5, 6, 7], "Millbrook", 2).values).toEqual([3, 4, NaN, 5, 6, 7]);
+    expect(() => cleanSeries([3, null, 5], "Millbrook", 2)).toThrow(/Millbrook has 1 missing value among its 3 periods \(33%, rows 3\)/);
   });
   test("interior text is refused, naming its row", () => {
     expect(() => cleanSeries([3, "closed", 5], "Millbrook")).toThrow(/text \("closed"\) in row 2/);
