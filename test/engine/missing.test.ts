@@ -5,7 +5,7 @@
 // smoothing). The benchmarks with gaps are checked against values worked by hand below.
 import * as fs from "fs";
 import * as path from "path";
-import { cleanSeries, describeForecaster, fitBenchmark, fitForecast, fitLambda, lambdaGuerrero, guerreroObjective, totalForecast, MAX_MISSING_SHARE } from "../../src/engine";
+import { backtest, cleanSeries, describeForecaster, fitBenchmark, fitForecast, fitLambda, lambdaGuerrero, guerreroObjective, totalForecast, MAX_MISSING_SHARE } from "../../src/engine";
 import { fitSmoothing, smoothingWithParams, Smoothing, InitialStates } from "../../src/engine/models/ets";
 import { concentrateWithGaps, filterWithGaps, gapStates, gapWorkspace } from "../../src/engine/models/ets-gaps";
 import type { SmoothingMethod } from "../../src/engine/models/methods";
@@ -264,6 +264,21 @@ describe("how a missing observation is represented and reported", () => {
     expect(f.missing).toBe(2);
     expect(f.auto?.candidates.length).toBe(6);
     expect(f.model?.missing).toBe(2);
+  });
+});
+
+describe("backtest with gaps (rolling origin, Tashman 2000)", () => {
+  test("an origin whose last period is missing is skipped and counted; a missing actual is not scored", () => {
+    // invented series, 30 periods, two missing
+    const cells: (number | null)[] = Array.from({ length: 30 }, (_, t) => 50 + t + ((t * 13) % 7));
+    cells[20] = null;
+    cells[25] = null;
+    const b = backtest(cells, 2, { method: "naive", lambda: 0, first: 18 });
+    // origins after 18..29 values: the one after 21 values ends on period 21 (missing), likewise after 26
+    expect(b.gapOrigins).toBe(2);
+    // step 1 is scored at origins whose next period is observed: 12 origins − 2 skipped − 2 with a missing actual
+    expect(b.rows[0].origins).toBe(8);
+    expect(b.rows.every((r) => r.coverage === null || Number.isFinite(r.coverage))).toBe(true);
   });
 });
 
