@@ -56,6 +56,11 @@ describe("a blank inside a series is a missing observation in every forecasting 
     expect(out[0][7]).toMatch(/2 blanks inside the series \(at position 51, position 101\) are missing observations/);
   });
 
+  test("FW.SCREEN's advice for an isolated zero names what works in cells: a blank", () => {
+    const out = FW.SCREEN([["Old Quay"], [120], [0], [130], [140], [150], [160]], N);
+    expect(out[0][7]).toMatch(/read zeros as missing observations: leave those cells blank \(a blank inside a series is a missing observation\)\./);
+  });
+
   test("too many blanks: #VALUE! with the numbers", async () => {
     const sparse = [10, null, 12, null, 11, null, 13, 14, 12, 15].map((v) => [v]);
     const out = await FW.FAN(sparse, 2, "naive", 0, N, N, N);

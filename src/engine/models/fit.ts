@@ -135,7 +135,8 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
     lambda = null;
     lambdaSource = "none";
   } else {
-    requirePositiveSeries(observed, 1, label, "a Box-Cox forecast");
+    // a missing observation stands in as 1 here, so the message's positions are the series' own
+    requirePositiveSeries(clean.missing ? y.map((v) => (Number.isNaN(v) ? 1 : v)) : y, 1, label, "a Box-Cox forecast");
     if (typeof lambdaSpec === "number") {
       lambda = lambdaSpec;
       lambdaSource = "given";

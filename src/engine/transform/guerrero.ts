@@ -124,7 +124,7 @@ export function lambdaGuerrero(values: readonly number[], options: GuerreroOptio
   }
   const observed = values.filter((v) => !Number.isNaN(v));
   requirePositiveSeries(observed, 2, label, `Guerrero's method`);
-  if (values.length < 2 * window) requirePositiveSeries(values, 2 * window, label, `Guerrero's method with windows of ${window} (two complete windows)`);
+  if (values.length < 2 * window) requirePositiveSeries(observed, 2 * window, label, `Guerrero's method with windows of ${window} (two complete windows)`);
   const bounds = checkLambdaBounds(options.lower, options.upper);
   const obj = guerreroObjective(values, window);
   if (obj.groups < 2) {
