@@ -2,7 +2,7 @@
 // outside references made by test/fixtures/missing/make_missing.py (numpy 1.24, statsmodels 0.13.5):
 // the joint-normal density of the observed points computed directly from the model's
 // moving-average form, and statsmodels' own Kalman filter (plus SARIMAX(0,1,1) for simple
-// smoothing). The benchmarks with gaps are checked against values worked by hand below.
+// smoothing, SARIMAX(0,2,2) for Holt). The benchmarks with gaps are checked against values worked by hand below.
 import * as fs from "fs";
 import * as path from "path";
 import { backtest, cleanSeries, describeForecaster, fitBenchmark, fitForecast, fitLambda, lambdaGuerrero, guerreroObjective, totalForecast, MAX_MISSING_SHARE } from "../../src/engine";
@@ -32,7 +32,7 @@ describe("smoothing with gaps equals the joint-normal density of the observed po
   }
 });
 
-describe("smoothing with gaps equals statsmodels 0.13.5's Kalman filter (error carried in the state; SARIMAX(0,1,1) for ses)", () => {
+describe("smoothing with gaps equals statsmodels 0.13.5's Kalman filter (error carried in the state; SARIMAX(0,1,1) for ses, SARIMAX(0,2,2) for holt)", () => {
   for (const c of FIXTURE.cases) {
     for (const ref of ["statsmodels_kalman", "statsmodels_sarimax"]) {
       if (!c[ref]) continue;
