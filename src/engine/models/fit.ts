@@ -121,7 +121,7 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   if (clean.leadingBlanks) notes.push(`${clean.leadingBlanks} leading blank${clean.leadingBlanks > 1 ? "s" : ""} skipped.`);
   if (clean.trailingBlanks) notes.push(`${clean.trailingBlanks} trailing blank${clean.trailingBlanks > 1 ? "s" : ""} skipped.`);
   if (clean.zerosAsMissing) notes.push(clean.zerosAsMissing > 1 ? `${clean.zerosAsMissing} zeros read as missing observations (closed periods).` : "1 zero read as a missing observation (a closed period).");
-  if (clean.missing) notes.push(`${clean.missing} missing observation${clean.missing > 1 ? "s" : ""} inside the series (row${clean.missing > 1 ? "s" : ""} ${listRows(clean.missingRows)}) of ${y.length} periods: the model's uncertainty grows through each gap, and every later interval includes it.`);
+  if (clean.missing) notes.push(`${clean.missing} missing observation${clean.missing > 1 ? "s" : ""} inside the series (row${clean.missing > 1 ? "s" : ""} ${listRows(clean.missingRows)}) of ${y.length} periods: the model allows for ${clean.missing > 1 ? "them" : "it"} (not filled in); with exponential smoothing the uncertainty grows through each gap and later intervals include it.`);
   if (y.length < 2) throw new EngineError("input", `${label} is too short to forecast: it has ${y.length} value; at least 2 are needed (more for most methods).`);
   if (seasonalMethod && y.length < 2 * period) {
     throw new EngineError("input", `${requestedMethod} needs two full seasons (${2 * period} values with period ${period}); ${label} has ${y.length}.`);
