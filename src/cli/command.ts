@@ -28,4 +28,5 @@ export const COMMON = {
   lambda: { type: { kind: "text" }, value: "L", help: "Box-Cox λ: a number, auto, guerrero, mle or none", example: "0", default: "auto" },
   level: { type: { kind: "number" }, value: "P", help: "interval level in percent", example: "95", default: "95" },
   mean: { type: { kind: "choice", values: ["taylor", "exact"] }, value: "taylor|exact", help: "how the mean is back-transformed", example: "exact", default: "taylor" },
+  zeros: { type: { kind: "choice", values: ["keep", "missing"] }, value: "keep|missing", help: "missing: read each zero as a missing observation (a closed period)", example: "missing", default: "keep" },
 } satisfies Record<string, OptionSpec>;

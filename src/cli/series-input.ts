@@ -1,6 +1,6 @@
 // Reading the series of a file for a command, and fitting every series with the shared options
 // (--method, --lambda, --period), each series keeping its own message when it cannot be used.
-import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster } from "../engine";
+import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
 import { csvSeries, CsvSeries } from "./csv";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs } from "./options";
@@ -31,11 +31,22 @@ export function lineOf(data: CsvSeries): (i: number) => string {
 }
 
 /**
- * Replaces "row N" (1-based data rows, as the engine names them) by the file's line.
- * @example atLines("zero at row 3", data) // "zero at line 4"
+ * Replaces "row N" and "rows N, M, …" (1-based data rows, as the engine names them) by the file's lines.
+ * @example atLines("zeros at rows 3, 5", data) // "zeros at lines 4, 6"
  */
 export function atLines(message: string, data: CsvSeries): string {
-  return message.replace(/row (\d+)/, (_m, r) => `line ${data.line(Number(r) - 1)}`);
+  return message.replace(/\b(rows?) (\d+(?:, \d+)*)/g, (_m, word: string, list: string) => `${word === "rows" ? "lines" : "line"} ${list.split(", ").map((r) => data.line(Number(r) - 1)).join(", ")}`);
+}
+
+/** How the command line names the zeros option in advice. */
+export const ZEROS_OPTION_CLI = "add --zeros missing";
+
+/**
+ * The --zeros option: "missing" reads each zero as a missing observation.
+ * @example zerosOf(parsed) // "keep"
+ */
+export function zerosOf(p: ParsedArgs): ZerosRule {
+  return (p.choice("zeros") ?? "keep") as ZerosRule;
 }
 
 /**
@@ -51,9 +62,9 @@ export function errorMessage(e: unknown): string {
  * Cleans one series, naming the file's lines in any message.
  * @example cleanSeriesAtLines(data.column(0), data, 0).values // [112, 118, …]
  */
-export function cleanSeriesAtLines(cells: RawCell[], data: CsvSeries, j: number): ReturnType<typeof cleanSeries> {
+export function cleanSeriesAtLines(cells: RawCell[], data: CsvSeries, j: number, zeros: ZerosRule = "keep"): ReturnType<typeof cleanSeries> {
   try {
-    return cleanSeries(cells, data.names[j], 1);
+    return cleanSeries(cells, data.names[j], 1, { zeros });
   } catch (e) {
     // cleanSeries names rows from 1; say which line of the file instead.
     if (isEngineError(e)) throw new EngineError(e.code, atLines(e.message, data));
@@ -77,15 +88,16 @@ export function fitAll(p: ParsedArgs, data: CsvSeries): SeriesFit[] {
   const period = p.int("period") ?? 1;
   const method = p.text("method");
   const lambdaFlag = p.text("lambda");
+  const zeros = zerosOf(p);
   return data.names.map((name, j) => {
     try {
       const cells = data.column(j);
       const lambda = lambdaFlag === undefined ? "auto" : lambdaFlag;
       if (lambda.toLowerCase() !== "none") {
-        const screen = screenSeries(cells, { period, label: name, where: lineOf(data) });
+        const screen = screenSeries(cells, { period, label: name, where: lineOf(data), zeros, zerosOption: ZEROS_OPTION_CLI });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
-      const f = fitForecast(cells, { method: method === undefined ? "auto" : method, lambda, period, label: name });
+      const f = fitForecast(cells, { method: method === undefined ? "auto" : method, lambda, period, label: name, zeros });
       return { name, f };
     } catch (e) {
       return { name, error: atLines(errorMessage(e), data) };

@@ -7,7 +7,7 @@ export type { InverseStatus } from "./transform/box-cox";
 export { yeoJohnson, yeoJohnsonInverse } from "./transform/yeo-johnson";
 export { boxCoxLogLik, lambdaMle, MLE_MIN_LENGTH } from "./transform/lambda-mle";
 export type { LambdaMleOptions, LambdaMleResult } from "./transform/lambda-mle";
-export { lambdaGuerrero, guerreroObjective } from "./transform/guerrero";
+export { lambdaGuerrero, guerreroObjective, guerreroWindowsUsable } from "./transform/guerrero";
 export type { GuerreroOptions, GuerreroResult } from "./transform/guerrero";
 export { readableLambda, READABLE_LAMBDAS } from "./transform/readable";
 export { fitLambda } from "./transform/fit-lambda";
@@ -30,7 +30,8 @@ export {
 export type { ExactMean, MeanMethod, QuantileValue } from "./distribution/backtransform";
 export { impliedLambda, meanFromInterval } from "./distribution/from-interval";
 export type { RecoveredForecast } from "./distribution/from-interval";
-export { cleanSeries } from "./series/clean";
+export { cleanSeries, observedValues, countMissing, listRows, MAX_MISSING_SHARE, ZEROS_OPTION_ALL_FACES } from "./series/clean";
+export type { CleanOptions, ZerosRule } from "./series/clean";
 export { isHeaderRow } from "./series/header";
 export type { CleanSeries } from "./series/clean";
 export { requirePositiveSeries, isConstant } from "./series/positive";
@@ -41,7 +42,7 @@ export { requireLevelPercent as checkLevelPercent, requireLambda as checkLambda 
 export { METHODS, SMOOTHING, parseMethod, isBenchmark } from "./models/methods";
 export type { MethodName, SmoothingMethod, BenchmarkMethod } from "./models/methods";
 export type { FittedModel, StepMoments } from "./models/types";
-export { fitSmoothing, smoothingWithParams, parameterCount, minimumLength } from "./models/ets";
+export { fitSmoothing, smoothingWithParams, parameterCount, minimumLength, checkGapsFit } from "./models/ets";
 export type { Smoothing, InitialStates } from "./models/ets";
 export { fitBenchmark } from "./models/benchmarks";
 export { fitAuto } from "./models/select";

@@ -137,7 +137,7 @@ export function SCREEN(values: any[][], period?: number): any[][] {
     const p = optionalInteger(period, "period", 1, 1);
     const s = readSeries(values);
     return finiteTable(s.series.map((cells, j) => {
-      const r = screenSeries(cells, { period: p, label: s.names[j] });
+      const r = screenSeries(cells, { period: p, label: s.names[j], zerosOption: "leave those cells blank (a blank inside a series is a missing observation)" });
       return [r.n, r.blanks, r.textCells, r.min ?? "", r.nonPositive, r.boxCoxUsable, r.suggestedLambda ?? "", r.message];
     }));
   });

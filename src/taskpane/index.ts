@@ -66,6 +66,7 @@ function controls(): FanControls {
     horizon: Number($<HTMLInputElement>("fw-horizon").value),
     period: Number($<HTMLInputElement>("fw-period").value),
     levels: $<HTMLInputElement>("fw-levels").value,
+    zeros: $<HTMLInputElement>("fw-zeros").checked ? "missing" : "keep",
   };
 }
 
@@ -253,7 +254,7 @@ function checkSeries(period: number): void {
     state.checkSlices++;
     const t0 = performance.now();
     try {
-      while (rows.length < n && performance.now() - t0 < CHECK_SLICE_MS) rows.push(checkRow(data, rows.length, period));
+      while (rows.length < n && performance.now() - t0 < CHECK_SLICE_MS) rows.push(checkRow(data, rows.length, period, $<HTMLInputElement>("fw-zeros").checked ? "missing" : "keep"));
     } catch (e) {
       state.checking = false;
       $("fw-check").textContent = e instanceof Error ? e.message : String(e);
@@ -327,7 +328,7 @@ async function runBacktest(): Promise<void> {
   try {
     let last = 0;
     const b = await backtestAsync(state.data.columns[c.series], Math.min(c.horizon, 12), {
-      method: c.method, lambda: c.lambda === "typed" ? "auto" : c.lambda, period: c.period, level: 80, label: state.data.names[c.series],
+      method: c.method, lambda: c.lambda === "typed" ? "auto" : c.lambda, period: c.period, zeros: c.zeros, level: 80, label: state.data.names[c.series],
       onProgress: (done, total) => { bar.max = total; bar.value = done; },
     }, () => {
       const now = performance.now();
@@ -425,6 +426,7 @@ function wire(): void {
   $("fw-horizon").addEventListener("input", () => later(renderFan));
   $("fw-levels").addEventListener("input", () => later(renderFan, 300));
   $("fw-period").addEventListener("input", () => later(renderAll));
+  $("fw-zeros").addEventListener("change", () => later(renderAll));
   $("fw-controls").addEventListener("submit", (e) => e.preventDefault());
   $("fw-export-svg").addEventListener("click", exportSvg);
   $("fw-export-png").addEventListener("click", exportPng);

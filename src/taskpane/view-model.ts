@@ -1,6 +1,6 @@
 // The pane's view model: raw columns and control values in, everything the pane shows out.
 // Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
-import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster } from "../engine";
+import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
 import { fanChartSvg } from "./chart/fan-chart";
 
 /** The data the pane works on: named columns of raw cells. */
@@ -26,7 +26,9 @@ export interface CheckRow {
   lambda: string;
   lambdaInterval: [number, number] | null;
   ready: boolean;
-  /** "not Box-Cox ready" (minimum ≤ 0), "too short", "gaps", or null. */
+  /** Missing observations inside the series (blanks, and zeros when they are read as missing). */
+  missing: number;
+  /** "not Box-Cox ready" (minimum ≤ 0), "too short", "gaps" (more missing than a forecast accepts), or null. */
   badge: string | null;
   reason: string;
 }
@@ -38,32 +40,36 @@ function fmt(x: number | null): string {
 
 /**
  * Screens each column and shapes the result for the table. A series whose minimum is ≤ 0 gets the
- * "not Box-Cox ready" badge with the reason and the fix; too-short series and interior gaps are
- * flagged too.
+ * "not Box-Cox ready" badge with the reason and the fix; too-short series and series with more
+ * missing observations than a forecast accepts are flagged too. With `zeros` "missing" (the
+ * "Treat zeros as missing" box) zeros are missing observations.
  * @example checkRows({ source: "x", names: ["A"], columns: [[1, 0, 2, 3]], headerRows: 0 }, 1)[0].badge // "not Box-Cox ready"
  */
-export function checkRows(data: PaneData, period: number): CheckRow[] {
-  return data.columns.map((_, j) => checkRow(data, j, period));
+export function checkRows(data: PaneData, period: number, zeros: ZerosRule = "keep"): CheckRow[] {
+  return data.columns.map((_, j) => checkRow(data, j, period, zeros));
 }
+
+/** How the pane names its zeros option in the check's advice. */
+export const ZEROS_OPTION_PANE = 'tick "Treat zeros as missing" in the fan controls';
 
 /**
  * The series-check row of column j (what {@link checkRows} does for each column), so a caller can
  * check a wide selection a few columns at a time.
  * @example checkRow({ source: "x", names: ["A"], columns: [[1, 2, 3, 4]], headerRows: 0 }, 0, 1).ready // true
  */
-export function checkRow(data: PaneData, j: number, period: number): CheckRow {
+export function checkRow(data: PaneData, j: number, period: number, zeros: ZerosRule = "keep"): CheckRow {
   const where = (i: number): string => data.rowLabels?.[i] ?? `row ${i + 1 + data.headerRows}`;
   const cells = data.columns[j];
   const name = data.names[j];
-  const r = screenSeries(cells, { period, label: name, where });
+  const r = screenSeries(cells, { period, label: name, where, zeros, zerosOption: ZEROS_OPTION_PANE });
   const iv = r.lambda ? r.lambda.interval : null;
   const interval: [number, number] | null = iv && iv[0] !== null && iv[1] !== null ? [iv[0], iv[1]] : null;
   const lambda = r.suggestedLambda === null ? "–" : interval ? `${fmt(r.suggestedLambda)} (${interval[0].toFixed(2)} to ${interval[1].toFixed(2)})` : fmt(r.suggestedLambda);
   let badge: string | null = null;
   if (r.nonPositive > 0) badge = "not Box-Cox ready";
   else if (r.fix === "too-short" || r.fix === "no-numbers") badge = "too short";
-  else if (r.interiorGaps.length) badge = "gaps";
-  return { name, n: r.n, min: fmt(r.min), blanks: r.blanks, lambda, lambdaInterval: interval, ready: r.boxCoxUsable && r.fix === "none", badge, reason: r.message };
+  else if (r.fix === "fill-gaps") badge = "gaps";
+  return { name, n: r.n, min: fmt(r.min), blanks: r.blanks, missing: r.missing, lambda, lambdaInterval: interval, ready: r.boxCoxUsable && r.fix === "none", badge, reason: r.message };
 }
 
 const WHAT_TO_SELECT = "Select the data: one column per series, oldest first, its name in the top cell (e.g. B1:B37 or B1:H74).";
@@ -100,6 +106,8 @@ export interface FanControls {
   period: number;
   /** Levels in percent, as text ("50,80,95"). */
   levels: string;
+  /** "missing": zeros are missing observations (the "Treat zeros as missing" box). Default "keep". */
+  zeros?: ZerosRule;
 }
 
 /** What the fan preview shows. */
@@ -155,12 +163,12 @@ export function fanView(data: PaneData, c: FanControls): FanView {
   try {
     const cells = data.columns[c.series];
     if (!cells) return { ok: false, message: "Choose a series." };
-    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows });
+    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows, zeros: c.zeros });
     const fan = fanTable(f, c.horizon, { levels: c.levels });
     const history: number[] = [];
     const labels: string[] = [];
     cells.forEach((v, i) => {
-      if (typeof v === "number") {
+      if (typeof v === "number" && !(c.zeros === "missing" && v === 0)) {
         history.push(v);
         labels.push(data.rowLabels?.[i] ?? String(i + 1));
       }
@@ -200,12 +208,14 @@ function quote(s: string): string {
 
 /**
  * The `=FW.FAN(...)` formula matching the controls, for a series at `address` (so the sheet
- * recalculates with the data).
+ * recalculates with the data). With zeros read as missing, the range is passed with its zeros
+ * blanked (`IF(range=0,"",range)`): in cells a blank inside a series is a missing observation.
  * @example fanFormula("Sheet1!B2:B74", { series: 0, method: "auto", lambda: "auto", horizon: 12, period: 12, levels: "80,95" }) // '=FW.FAN(Sheet1!B2:B74,12,"auto","auto","80,95",12)'
  */
 export function fanFormula(address: string, c: FanControls): string {
   const l = lambdaOption(c.lambda);
-  return `=FW.FAN(${address},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
+  const values = c.zeros === "missing" ? `IF(${address}=0,"",${address})` : address;
+  return `=FW.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
 }
 
 /** What the coverage-audit view shows. */

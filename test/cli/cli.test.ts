@@ -62,7 +62,7 @@ describe("fanwise demo", () => {
     expect(fs.existsSync(path.join(dir, "quillmere-forecast-log.csv"))).toBe(true);
     const s = JSON.parse(runCli(["screen", csv, "--period", "12", "--json"]).out).series;
     expect(s["Old Quay"].boxCoxUsable).toBe(false);
-    expect(s["Old Quay"].fix).toBe("shift");
+    expect(s["Old Quay"].fix).toBe("zeros-missing"); // one closed month between open ones: read it as missing
     expect(s["Parts costs (net)"].fix).toBe("yeo-johnson");
     expect(s["Larkfield"].leadingBlanks).toBe(27);
     expect(s["Harbour Street"].boxCoxUsable).toBe(true);

@@ -3,7 +3,7 @@
 import { backtest, isEngineError } from "../../engine";
 import { Command, COMMON } from "../command";
 import { seriesError, writeOutput } from "../output";
-import { errorMessage, readSeriesFile } from "../series-input";
+import { errorMessage, readSeriesFile, zerosOf } from "../series-input";
 
 export const backtestCommand: Command = {
   name: "backtest",
@@ -16,6 +16,7 @@ export const backtestCommand: Command = {
     level: COMMON.level,
     period: COMMON.period,
     first: { type: { kind: "int", min: 2 }, value: "N", help: "length of the first fitting window", example: "24" },
+    zeros: COMMON.zeros,
     json: COMMON.json,
   },
   examples: ["fanwise backtest sales.csv --horizon 3 --period 12"],
@@ -27,7 +28,7 @@ export const backtestCommand: Command = {
     const data = readSeriesFile(p);
     const results = data.names.map((_, j) => {
       try {
-        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", level, period, first, label: data.names[j] }) };
+        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", level, period, first, label: data.names[j], zeros: zerosOf(p) }) };
       } catch (e) {
         if (isEngineError(e) && /^horizon|must be a percentage|is in percent/.test(e.message)) throw e;
         return { name: data.names[j], error: errorMessage(e) };
@@ -36,7 +37,7 @@ export const backtestCommand: Command = {
     writeOutput(io, p.has("json"), {
       json: () => {
         const series: Record<string, unknown> = {};
-        for (const r of results) series[r.name] = r.b ? { horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, steps: r.b.rows } : { error: r.error };
+        for (const r of results) series[r.name] = r.b ? { horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, steps: r.b.rows } : { error: r.error };
         return { series };
       },
       header: ["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "note"],

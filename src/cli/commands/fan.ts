@@ -2,7 +2,7 @@
 import { FanTable, Maybe, fanTable, isEngineError } from "../../engine";
 import { Command, COMMON } from "../command";
 import { seriesError, writeOutput } from "../output";
-import { errorMessage, fitAll, readSeriesFile } from "../series-input";
+import { atLines, errorMessage, fitAll, readSeriesFile } from "../series-input";
 
 /** fan's own options, shared with the commands that draw or write a fan. */
 export const FAN_OPTIONS = {
@@ -12,6 +12,7 @@ export const FAN_OPTIONS = {
   levels: { type: { kind: "text" as const }, value: "80,95", help: "interval levels in percent", example: "80,95", default: "80,95" },
   period: COMMON.period,
   mean: COMMON.mean,
+  zeros: COMMON.zeros,
 };
 
 /**
@@ -42,10 +43,11 @@ export const fanCommand: Command = {
     const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
     const levels = p.text("levels");
     const data = readSeriesFile(p);
-    const tables: { name: string; table?: FanTable; error?: string }[] = fitAll(p, data).map((x) => {
+    const tables: { name: string; table?: FanTable; missing?: number; error?: string }[] = fitAll(p, data).map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
-        return { name: x.name, table: fanTable(x.f, H, { levels, mean }) };
+        const table = fanTable(x.f, H, { levels, mean });
+        return { name: x.name, table: { ...table, notes: table.notes.map((n) => atLines(n, data)) }, missing: x.f.missing };
       } catch (e) {
         if (isEngineError(e) && e.code === "input" && /horizon|level/.test(e.message)) throw e; // the same for every series
         return { name: x.name, error: errorMessage(e) };
@@ -62,6 +64,7 @@ export const fanCommand: Command = {
             method: tb.method,
             lambda: tb.lambda,
             sigma: tb.sigma,
+            missing: t.missing,
             meanMethod: tb.meanMethod,
             steps: tb.rows.map((r) => ({
               h: r.h,

@@ -2,7 +2,7 @@
 import { EngineError, LambdaMethod, fitLambda, screenSeries } from "../../engine";
 import { Command, COMMON } from "../command";
 import { seriesError, writeOutput } from "../output";
-import { cleanSeriesAtLines, errorMessage, lineOf, readSeriesFile } from "../series-input";
+import { cleanSeriesAtLines, errorMessage, lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const lambdaCommand: Command = {
   name: "lambda",
@@ -12,6 +12,7 @@ export const lambdaCommand: Command = {
     method: { type: { kind: "choice", values: ["guerrero", "mle"] }, value: "guerrero|mle", help: "Guerrero's method or the profile likelihood", example: "mle", default: "guerrero" },
     period: COMMON.period,
     bounds: { type: { kind: "pair" }, value: "LO,HI", help: "search λ between these two numbers", example: "-1,2", default: "-1,2" },
+    zeros: COMMON.zeros,
     json: COMMON.json,
   },
   examples: ["fanwise lambda sales.csv --period 12", "fanwise lambda sales.csv --method mle --json"],
@@ -23,9 +24,9 @@ export const lambdaCommand: Command = {
     const results = data.names.map((_, j) => {
       try {
         const cells = data.column(j);
-        const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data) });
+        const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI });
         if (!screen.boxCoxUsable) throw new EngineError("input", screen.message);
-        const clean = cleanSeriesAtLines(cells, data, j);
+        const clean = cleanSeriesAtLines(cells, data, j, zerosOf(p));
         return { ok: true as const, r: fitLambda(clean.values, { method, period, lower, upper, label: data.names[j] }) };
       } catch (e) {
         return { ok: false as const, message: errorMessage(e) };
@@ -36,7 +37,7 @@ export const lambdaCommand: Command = {
         const series: Record<string, unknown> = {};
         results.forEach((x, j) => {
           series[data.names[j]] = x.ok
-            ? { lambda: x.r.lambda, method: x.r.method, interval: x.r.interval, loglik: x.r.loglik, readable: x.r.readable, onBound: x.r.onBound, window: x.r.window, n: x.r.n, note: x.r.note }
+            ? { lambda: x.r.lambda, method: x.r.method, interval: x.r.interval, loglik: x.r.loglik, readable: x.r.readable, onBound: x.r.onBound, window: x.r.window, n: x.r.n, missing: x.r.missing, note: x.r.note }
             : { error: x.message };
         });
         return { series };

@@ -2,24 +2,24 @@
 import { screenSeries } from "../../engine";
 import { Command, COMMON } from "../command";
 import { writeOutput } from "../output";
-import { lineOf, readSeriesFile } from "../series-input";
+import { lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const screenCommand: Command = {
   name: "screen",
   summary: "check each series: blanks, text cells, values ≤ 0, a suggested λ",
   args: "FILE",
-  options: { period: COMMON.period, json: COMMON.json },
+  options: { period: COMMON.period, zeros: COMMON.zeros, json: COMMON.json },
   examples: ["fanwise screen sales.csv --period 12"],
   run(p, io) {
     const period = p.int("period") ?? 1;
     const data = readSeriesFile(p);
-    const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data) }));
+    const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI }));
     writeOutput(io, p.has("json"), {
       json: () => {
         const series: Record<string, unknown> = {};
         results.forEach((r, j) => {
           series[data.names[j]] = {
-            n: r.n, blanks: r.blanks, leadingBlanks: r.leadingBlanks, trailingBlanks: r.trailingBlanks, interiorGaps: r.interiorGaps,
+            n: r.n, blanks: r.blanks, leadingBlanks: r.leadingBlanks, trailingBlanks: r.trailingBlanks, interiorGaps: r.interiorGaps, missing: r.missing, zerosIsolated: r.zerosIsolated,
             textCells: r.textCells, min: r.min, max: r.max, zeros: r.zeros, negatives: r.negatives, nonPositive: r.nonPositive,
             boxCoxUsable: r.boxCoxUsable, suggestedLambda: r.suggestedLambda, lambdaEstimate: r.lambda ? r.lambda.lambda : null,
             lambdaMethod: r.lambda ? r.lambda.method : null, fix: r.fix, shift: r.shift, message: r.message,

@@ -3,7 +3,7 @@
 import { isEngineError, totalForecast } from "../../engine";
 import { Command, COMMON } from "../command";
 import { seriesError, writeOutput } from "../output";
-import { errorMessage, fitAll, readSeriesFile } from "../series-input";
+import { atLines, errorMessage, fitAll, readSeriesFile } from "../series-input";
 
 export const totalCommand: Command = {
   name: "total",
@@ -18,6 +18,7 @@ export const totalCommand: Command = {
     seed: { type: { kind: "int", min: 0 }, value: "S", help: "seed of the simulated paths (same seed, same result)", example: "7", default: "1" },
     paths: { type: { kind: "int", min: 100 }, value: "P", help: "number of simulated paths", example: "20000", default: "10000" },
     mean: COMMON.mean,
+    zeros: COMMON.zeros,
     json: COMMON.json,
   },
   examples: ["fanwise total sales.csv --horizon 12 --period 12", "fanwise total sales.csv --horizon 12 --level 80 --seed 7 --json"],
@@ -31,7 +32,8 @@ export const totalCommand: Command = {
     const results = fitAll(p, data).map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
-        return { name: x.name, method: x.f.method, lambda: x.f.lambda, t: totalForecast(x.f, H, { level, seed, paths, mean }) };
+        const t = totalForecast(x.f, H, { level, seed, paths, mean });
+        return { name: x.name, method: x.f.method, lambda: x.f.lambda, missing: x.f.missing, t: { ...t, notes: t.notes.map((n) => atLines(n, data)) } };
       } catch (e) {
         if (isEngineError(e) && e.code === "input" && /horizon|level|paths|seed/.test(e.message)) throw e;
         return { name: x.name, error: errorMessage(e) };
@@ -43,7 +45,7 @@ export const totalCommand: Command = {
         for (const r of results) {
           if (!("t" in r) || !r.t) { series[r.name] = { error: r.error }; continue; }
           series[r.name] = {
-            method: r.method, lambda: r.lambda, horizon: r.t.horizon,
+            method: r.method, lambda: r.lambda, missing: r.missing, horizon: r.t.horizon,
             mean: r.t.mean.value, median: r.t.median, interval: r.t.interval, level: r.t.level,
             paths: r.t.paths, seed: r.t.seed, simulatedMean: r.t.simulatedMean, monteCarloError: r.t.monteCarloError,
             notes: [...(r.t.mean.note ? [r.t.mean.note] : []), ...r.t.notes],

@@ -40,6 +40,8 @@ export interface Backtest {
   /** Origins at which the fit failed (with the first message), skipped. */
   failures: number;
   failureNote: string | null;
+  /** Origins skipped because their last period is a missing observation. */
+  gapOrigins: number;
   rows: BacktestRow[];
 }
 
@@ -74,7 +76,7 @@ function smallestLength(method: string, period: number): number {
 }
 
 function prepare(cells: readonly RawCell[], horizon: number, options: BacktestOptions): { y: number[]; H: number; first: number; level: number; origins: number } {
-  const y = cleanSeries(cells, options.label ?? "the series", options.firstRow ?? 1).values;
+  const y = cleanSeries(cells, options.label ?? "the series", options.firstRow ?? 1, { zeros: options.zeros }).values;
   const H = checkHorizon(horizon, y.length);
   const level = options.level ?? 95;
   requireLevelPercent(level);
@@ -95,7 +97,9 @@ function prepare(cells: readonly RawCell[], horizon: number, options: BacktestOp
  * is `auto`/`guerrero`/`mle`) on y[0..t), forecast up to H steps, and record, per step ahead, the
  * coverage of the central `level`% interval, the mean interval score (Winkler 1972), and the mean
  * error of the bias-adjusted mean and of the median — what using medians has cost on this history.
- * Source: Tashman (2000). Origins whose fit fails are skipped and counted.
+ * Source: Tashman (2000). Origins whose fit fails are skipped and counted. With missing
+ * observations, an origin whose last period is missing is skipped (counted in `gapOrigins`) and a
+ * missing actual is not scored.
  * @example backtest(air, 12, { method: "holt-winters", lambda: 0, period: 12 }).rows[0].coverage
  */
 export function backtest(cells: readonly RawCell[], horizon: number, options: BacktestOptions = {}): Backtest {
@@ -122,16 +126,26 @@ function* backtestRun(cells: readonly RawCell[], horizon: number, options: Backt
   const acc = Array.from({ length: H }, () => ({ n: 0, inside: 0, is: 0, emean: 0, emed: 0, amean: 0, amed: 0 }));
   let failures = 0;
   let failureNote: string | null = null;
+  let gapOrigins = 0;
   const alpha = 1 - level / 100;
   for (let t = first, k = 0; t < y.length; t++, k++) {
     const steps = Math.min(H, y.length - t);
+    if (Number.isNaN(y[t - 1])) {
+      // no forecast is made from a missing period: the origin is skipped (and counted)
+      gapOrigins++;
+      options.onProgress?.(k + 1, origins);
+      yield k + 1;
+      continue;
+    }
     try {
-      const f = fitForecast(y.slice(0, t), { method: options.method, lambda: options.lambda, period: options.period, label: options.label });
+      // missing observations (NaN) go back to blanks, which the fit reads as missing
+      const f = fitForecast(y.slice(0, t).map((v) => (Number.isNaN(v) ? null : v)), { method: options.method, lambda: options.lambda, period: options.period, label: options.label });
       const fan = fanTable(f, steps, { levels: [level] });
       fan.rows.forEach((r, j) => {
         const actual = y[t + j];
         const [lo, hi] = r.intervals[String(level)];
         const a = acc[j];
+        if (Number.isNaN(actual)) return; // nothing to check against
         if (lo.value === null || hi.value === null || r.median.value === null) return;
         a.n++;
         if (actual >= lo.value && actual <= hi.value) a.inside++;
@@ -161,5 +175,5 @@ function* backtestRun(cells: readonly RawCell[], horizon: number, options: Backt
     maeOfMedian: a.n ? a.amed / a.n : null,
   }));
   if (rows.every((r) => r.origins === 0)) throw new EngineError("input", `The backtest could not fit the model at any origin${failureNote ? `: ${failureNote}` : ""}.`);
-  return { horizon: H, level, first, failures, failureNote, rows };
+  return { horizon: H, level, first, failures, failureNote, gapOrigins, rows };
 }

@@ -220,7 +220,8 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
 export type DescriptionRow = [string, number | string];
 
 /**
- * A model's description as label/value rows: method, λ, each parameter, σ, log-likelihood, AICc, n.
+ * A model's description as label/value rows: method, λ, each parameter, σ, log-likelihood, AICc, n
+ * (periods fitted) and missing (how many of them were missing observations).
  * @example describeForecaster(f)[0] // ["method", "holt-winters"]
  */
 export function describeForecaster(f: Forecaster): DescriptionRow[] {
@@ -240,6 +241,7 @@ export function describeForecaster(f: Forecaster): DescriptionRow[] {
   rows.push(["loglik", f.model ? f.model.loglik : "n/a (constant series)"]);
   rows.push(["AICc", f.model ? f.model.aicc : "n/a (constant series)"]);
   rows.push(["n", f.n]);
+  rows.push(["missing", f.missing]);
   if (arima && arima.nobs !== undefined) rows.push(["differences used", arima.nobs]);
   if (f.auto) rows.push(["AICc margin over next best", f.auto.margin]);
   return rows;

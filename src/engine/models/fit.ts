@@ -2,11 +2,12 @@
 // fit the method (or choose one by AICc). The one entry the faces use.
 import { EngineError } from "../errors";
 import { fmt } from "../_lib/check";
-import { cleanSeries } from "../series/clean";
+import { cleanSeries, listRows, observedValues, ZerosRule } from "../series/clean";
 import type { RawCell } from "../series/screen";
 import { requirePositiveSeries, isConstant } from "../series/positive";
 import { boxCoxUnchecked } from "../transform/box-cox";
 import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
+import { guerreroWindowsUsable } from "../transform/guerrero";
 import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
 import { fitBenchmark } from "./benchmarks";
 import { fitSmoothing } from "./ets";
@@ -31,6 +32,8 @@ export interface ForecastOptions {
   label?: string;
   /** Row number of the first cell, for messages (default 1). */
   firstRow?: number;
+  /** `missing`: zeros are missing observations (closed periods); default `keep` (zeros are values). */
+  zeros?: ZerosRule;
 }
 
 /** A fitted model with its transform. Immutable. */
@@ -48,6 +51,10 @@ export interface Forecaster {
   readonly n: number;
   readonly leadingBlanks: number;
   readonly trailingBlanks: number;
+  /** Missing observations inside the series (blanks, or zeros read as missing), handled by the model. */
+  readonly missing: number;
+  /** Zeros read as missing observations (`zeros: "missing"`). */
+  readonly zerosAsMissing: number;
   /** The last observed value on the original scale. */
   readonly lastValue: number;
   /** The model on the transformed scale; null for a constant series. */
@@ -87,8 +94,9 @@ export function checkHorizon(h: unknown, n: number): number {
 
 /**
  * Fits a forecasting model to a positive series on a Box-Cox scale (or untransformed with
- * `lambda: "none"`): trims leading/trailing blanks (reported), refuses interior gaps (naming the
- * row), chooses λ (Guerrero 1993 / Box & Cox 1964), fits the method (METHODS §3: benchmarks, or
+ * `lambda: "none"`): trims leading/trailing blanks (reported), reads interior blanks (and, with
+ * `zeros: "missing"`, zeros) as missing observations (counted in `missing`; at most
+ * MAX_MISSING_SHARE of the periods; METHODS §8), chooses λ on the observed points (Guerrero 1993 / Box & Cox 1964), fits the method (METHODS §3: benchmarks, or
  * exponential smoothing by maximum likelihood, Hyndman et al. 2008), and returns an immutable
  * forecaster. A constant series gives a degenerate forecaster (σ = 0) with a note.
  * @example fitForecast(airPassengers, { method: "holt-winters", lambda: 0, period: 12 }).forecast(1)[0].mean // ≈ 6.10
@@ -106,11 +114,14 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   if (seasonalMethod && period < 2) {
     throw new EngineError("input", `${requestedMethod} is seasonal: give the period (12 for monthly data, 4 for quarterly).`);
   }
-  const clean = cleanSeries(cells, label, options.firstRow ?? 1);
+  const clean = cleanSeries(cells, label, options.firstRow ?? 1, { zeros: options.zeros });
   const y = clean.values;
+  const observed = observedValues(y);
   const notes: string[] = [];
   if (clean.leadingBlanks) notes.push(`${clean.leadingBlanks} leading blank${clean.leadingBlanks > 1 ? "s" : ""} skipped.`);
   if (clean.trailingBlanks) notes.push(`${clean.trailingBlanks} trailing blank${clean.trailingBlanks > 1 ? "s" : ""} skipped.`);
+  if (clean.zerosAsMissing) notes.push(clean.zerosAsMissing > 1 ? `${clean.zerosAsMissing} zeros read as missing observations (closed periods).` : "1 zero read as a missing observation (a closed period).");
+  if (clean.missing) notes.push(`${clean.missing} missing observation${clean.missing > 1 ? "s" : ""} inside the series (row${clean.missing > 1 ? "s" : ""} ${listRows(clean.missingRows)}) of ${y.length} periods: the model allows for ${clean.missing > 1 ? "them" : "it"} (not filled in); with exponential smoothing the uncertainty grows through each gap and later intervals include it.`);
   if (y.length < 2) throw new EngineError("input", `${label} is too short to forecast: it has ${y.length} value; at least 2 are needed (more for most methods).`);
   if (seasonalMethod && y.length < 2 * period) {
     throw new EngineError("input", `${requestedMethod} needs two full seasons (${2 * period} values with period ${period}); ${label} has ${y.length}.`);
@@ -124,38 +135,51 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
     lambda = null;
     lambdaSource = "none";
   } else {
-    requirePositiveSeries(y, 1, label, "a Box-Cox forecast");
+    // a missing observation stands in as 1 here, so the message's positions are the series' own
+    requirePositiveSeries(clean.missing ? y.map((v) => (Number.isNaN(v) ? 1 : v)) : y, 1, label, "a Box-Cox forecast");
     if (typeof lambdaSpec === "number") {
       lambda = lambdaSpec;
       lambdaSource = "given";
-    } else if (isConstant(y)) {
+    } else if (isConstant(observed)) {
       lambda = 1;
       lambdaSource = "given";
       notes.push("The series is constant, so λ = 1 (no transform) is used.");
     } else {
       const window = period > 1 ? period : 2;
-      const method = lambdaSpec === "mle" || (lambdaSpec === "auto" && y.length < 2 * window) ? "mle" : "guerrero";
-      if (method === "mle" && y.length < MLE_MIN_LENGTH) {
-        throw new EngineError("input", `${label} is too short to choose λ (${y.length} values; at least ${MLE_MIN_LENGTH}). Give λ as a number (0 for the log) or "none".`);
+      let method: "mle" | "guerrero" = lambdaSpec === "mle" || (lambdaSpec === "auto" && y.length < 2 * window) ? "mle" : "guerrero";
+      if (observed.length < MLE_MIN_LENGTH) {
+        throw new EngineError("input", `${label} is too short to choose λ (${observed.length} observed values; at least ${MLE_MIN_LENGTH}). Give λ as a number (0 for the log) or "none".`);
+      }
+      let fallback = "";
+      if (method === "guerrero" && lambdaSpec === "auto" && clean.missing > 0) {
+        const usable = guerreroWindowsUsable(y, window);
+        if (usable.used < 2) {
+          method = "mle";
+          fallback = `λ by maximum likelihood: only ${usable.used} of Guerrero's ${usable.groups} windows of ${window} have few enough missing points.`;
+        }
       }
       lambdaChoice = fitLambda(y, { method, period, label });
       lambda = lambdaChoice.lambda;
       lambdaSource = method;
-      if (lambdaSpec === "auto" && method === "mle") notes.push(`λ by maximum likelihood: the series is too short for Guerrero's windows of ${window}.`);
+      if (fallback) notes.push(fallback);
+      else if (lambdaSpec === "auto" && method === "mle") notes.push(`λ by maximum likelihood: the series is too short for Guerrero's windows of ${window}.`);
       if (lambdaChoice.onBound) notes.push(lambdaChoice.note);
+      if (lambdaChoice.skippedWindows) notes.push(`Guerrero's method skipped ${lambdaChoice.skippedWindows} window${lambdaChoice.skippedWindows > 1 ? "s" : ""} of ${window} with too many missing points.`);
     }
   }
-  const w = lambda === null ? y.slice() : y.map((v) => boxCoxUnchecked(v, lambda as number));
+  // missing observations stay NaN on the transformed scale
+  const w = lambda === null ? y.slice() : y.map((v) => (Number.isNaN(v) ? NaN : boxCoxUnchecked(v, lambda as number)));
   for (const v of w) {
-    if (!Number.isFinite(v)) throw new EngineError("domain", `Box-Cox with λ = ${fmt(lambda as number)} overflows on ${label}'s values; use a smaller λ (e.g. 0).`);
+    if (!Number.isFinite(v) && !Number.isNaN(v)) throw new EngineError("domain", `Box-Cox with λ = ${fmt(lambda as number)} overflows on ${label}'s values; use a smaller λ (e.g. 0).`);
   }
 
   const base = {
     label, requestedMethod, lambda, lambdaSource, lambdaChoice, period, n: y.length,
-    leadingBlanks: clean.leadingBlanks, trailingBlanks: clean.trailingBlanks, lastValue: y[y.length - 1],
+    leadingBlanks: clean.leadingBlanks, trailingBlanks: clean.trailingBlanks, missing: clean.missing, zerosAsMissing: clean.zerosAsMissing,
+    lastValue: y[y.length - 1],
   };
 
-  if (isConstant(w)) {
+  if (isConstant(observedValues(w))) {
     notes.push(`${label} is constant (${fmt(y[0])}): the forecast is that value with no uncertainty (σ = 0).`);
     const v = w[0];
     const method = requestedMethod === "auto" ? "naive" : requestedMethod;

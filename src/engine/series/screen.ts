@@ -1,14 +1,16 @@
 import { EngineError, isEngineError } from "../errors";
 import { fmt } from "../_lib/check";
 import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
+import { guerreroWindowsUsable } from "../transform/guerrero";
 import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
 import { isBlank, cap } from "../_lib/cells";
+import { MAX_MISSING_SHARE, ZEROS_OPTION_ALL_FACES, ZerosRule } from "./clean";
 
 /** A raw cell as the faces hand it over: a number, text, a boolean, or blank (null/undefined/""). */
 export type RawCell = number | string | boolean | null | undefined;
 
 /** What to do about a series before Box-Cox. */
-export type SuggestedFix = "none" | "shift" | "yeo-johnson" | "too-short" | "fill-gaps" | "constant" | "no-numbers";
+export type SuggestedFix = "none" | "shift" | "yeo-johnson" | "too-short" | "fill-gaps" | "constant" | "no-numbers" | "zeros-missing";
 
 /** Screening of one series. */
 export interface ScreenResult {
@@ -20,6 +22,13 @@ export interface ScreenResult {
   trailingBlanks: number;
   /** 1-based positions of blanks between the first and last number. */
   interiorGaps: number[];
+  /**
+   * Missing observations the forecast will see: interior blanks, plus interior zeros when zeros
+   * are read as missing. More than MAX_MISSING_SHARE of the periods is refused by the forecast.
+   */
+  missing: number;
+  /** True when every zero sits alone between positive values (a closed period), so reading zeros as missing fits. */
+  zerosIsolated: boolean;
   /** Text and boolean cells (not counted as numbers). */
   textCells: number;
   min: number | null;
@@ -44,11 +53,16 @@ export interface ScreenResult {
  * finds the minimum and values ≤ 0; says whether Box-Cox is usable, suggests λ (Guerrero 1993 with
  * window = period, 2 when period is 1; maximum likelihood, Box & Cox 1964, when the series is too
  * short for two windows) and, when Box-Cox is not usable, the fix (shift by c, Yeo-Johnson 2000,
- * fill the gaps, or "too short").
+ * read isolated zeros as missing observations — naming the face's option, `zerosOption` — or
+ * "too short"). Interior blanks are missing observations (λ is chosen with them in place); more
+ * than MAX_MISSING_SHARE of them gets the fix "fill-gaps". With `zeros: "missing"` zeros are
+ * read as missing too.
  * @example screenSeries([3, 0, 5, 6], { label: "Old Quay" }).fix // "shift"
  */
-export function screenSeries(cells: readonly RawCell[], options: { period?: number; label?: string; where?: (index: number) => string } = {}): ScreenResult {
+export function screenSeries(cells: readonly RawCell[], options: { period?: number; label?: string; where?: (index: number) => string; zeros?: ZerosRule; zerosOption?: string } = {}): ScreenResult {
   const label = options.label ?? "the series";
+  const zerosMissing = options.zeros === "missing";
+  const zerosOption = options.zerosOption ?? ZEROS_OPTION_ALL_FACES;
   const where = options.where ?? ((i: number) => `position ${i + 1}`);
   const period = options.period ?? 1;
   if (!Number.isInteger(period) || period < 1) {
@@ -58,10 +72,15 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   const positions: number[] = [];
   let blanks = 0;
   let textCells = 0;
+  let zerosRead = 0;
   for (let i = 0; i < cells.length; i++) {
     const c = cells[i];
     if (isBlank(c)) blanks++;
     else if (typeof c === "number" && Number.isFinite(c)) {
+      if (zerosMissing && c === 0) {
+        zerosRead++;
+        continue;
+      }
       numbers.push(c);
       positions.push(i);
     } else textCells++;
@@ -69,7 +88,18 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   const first = positions.length ? positions[0] : cells.length;
   const last = positions.length ? positions[positions.length - 1] : -1;
   const interiorGaps: number[] = [];
-  for (let i = first + 1; i < last; i++) if (isBlank(cells[i])) interiorGaps.push(i + 1);
+  let missing = 0;
+  for (let i = first + 1; i < last; i++) {
+    if (isBlank(cells[i])) interiorGaps.push(i + 1);
+    if (isBlank(cells[i]) || (zerosMissing && cells[i] === 0)) missing++;
+  }
+  const span = last - first + 1;
+  // the series as the forecast reads it: NaN at each missing observation, for λ's windows
+  const positioned: number[] = [];
+  for (let i = first, k = 0; i <= last; i++) {
+    if (k < positions.length && positions[k] === i) positioned.push(numbers[k++]);
+    else if (isBlank(cells[i]) || (zerosMissing && cells[i] === 0)) positioned.push(NaN);
+  }
   let trailingBlanks = 0;
   for (let i = cells.length - 1; i > last && isBlank(cells[i]); i--) trailingBlanks++;
   let leadingBlanks = 0;
@@ -89,7 +119,8 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
     if (v <= 0 && firstBad < 0) firstBad = positions[k];
   }
   const nonPositive = zeros + negatives;
-  const base = { label, n: numbers.length, blanks, leadingBlanks, trailingBlanks, interiorGaps, textCells, min, max, zeros, negatives, nonPositive };
+  const zerosIsolated = isolatedZeros(numbers, missing, span);
+  const base = { label, n: numbers.length, blanks, leadingBlanks, trailingBlanks, interiorGaps, missing, zerosIsolated, textCells, min, max, zeros: zeros + zerosRead, negatives, nonPositive };
   const textNote = textCells ? ` ${textCells} text cell${textCells > 1 ? "s are" : " is"} ignored.` : "";
 
   if (numbers.length === 0) {
@@ -99,10 +130,12 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
     const smallestPositive = numbers.filter((v) => v > 0).reduce((a, b) => Math.min(a, b), Infinity);
     const shift = -(min as number) + (Number.isFinite(smallestPositive) ? smallestPositive : 1);
     const what = [zeros ? `${zeros} zero${zeros > 1 ? "s" : ""}` : "", negatives ? `${negatives} negative value${negatives > 1 ? "s" : ""}` : ""].filter(Boolean).join(" and ");
-    const fix: SuggestedFix = negatives > 0 ? "yeo-johnson" : "shift";
+    const fix: SuggestedFix = negatives > 0 ? "yeo-johnson" : zerosIsolated ? "zeros-missing" : "shift";
     const advice = negatives > 0
       ? `Use Yeo-Johnson, or shift by c = ${fmt(shift)} before Box-Cox`
-      : `Shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`;
+      : zerosIsolated
+        ? `If ${zeros > 1 ? "those periods were" : "that period was"} closed, read zeros as missing observations: ${zerosOption}. Otherwise shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`
+        : `Shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`;
     return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix, shift, message: `Not Box-Cox ready: ${label} has ${what} (minimum ${fmt(min as number)}, first at ${where(firstBad)}); Box-Cox needs values > 0. ${advice}.${textNote}` };
   }
   if (numbers.length < MLE_MIN_LENGTH) {
@@ -114,14 +147,24 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   const window = period > 1 ? period : 2;
   let lambda: LambdaChoice;
   try {
-    lambda = fitLambda(numbers, { method: numbers.length >= 2 * window ? "guerrero" : "mle", period, label });
+    let method: "guerrero" | "mle" = span >= 2 * window ? "guerrero" : "mle";
+    if (method === "guerrero" && missing > 0 && guerreroWindowsUsable(positioned, window).used < 2) method = "mle";
+    lambda = fitLambda(positioned, { method, period, label });
   } catch (e) {
     if (!isEngineError(e)) throw e;
     return { ...base, boxCoxUsable: true, suggestedLambda: null, lambda: null, fix: "too-short", shift: null, message: `${e.message}${textNote}` };
   }
-  const how = lambda.method === "guerrero" ? `Guerrero's method, windows of ${window}` : `maximum likelihood (too short for Guerrero's windows of ${window})`;
-  const gaps = interiorGaps.length
-    ? ` ${interiorGaps.length} blank${interiorGaps.length > 1 ? "s" : ""} inside the series (at ${listPositions(interiorGaps.map((p) => where(p - 1)))}): fill ${interiorGaps.length > 1 ? "them" : "it"} before forecasting.`
+  const how = lambda.method === "guerrero"
+    ? `Guerrero's method, windows of ${window}${lambda.skippedWindows ? `, ${lambda.skippedWindows} skipped for missing points` : ""}`
+    : `maximum likelihood (${span >= 2 * window ? `too few of Guerrero's windows of ${window} without gaps` : `too short for Guerrero's windows of ${window}`})`;
+  const missingAt: string[] = [];
+  for (let i = first + 1; i < last; i++) if (isBlank(cells[i]) || (zerosMissing && cells[i] === 0)) missingAt.push(where(i));
+  const tooMany = missing > MAX_MISSING_SHARE * span;
+  const what = zerosMissing ? "missing value" : "blank";
+  const gaps = missing
+    ? tooMany
+      ? ` ${missing} ${what}${missing > 1 ? "s" : ""} inside the series (${Math.round((100 * missing) / span)}% of ${span} periods, at ${listPositions(missingAt)}): at most ${Math.round(100 * MAX_MISSING_SHARE)}% may be missing for a forecast; fill some of them.`
+      : ` ${missing} ${what}${missing > 1 ? "s" : ""} inside the series (at ${listPositions(missingAt)}) ${missing > 1 ? "are missing observations" : "is a missing observation"}: the forecast allows for ${missing > 1 ? "them" : "it"}.`
     : "";
   const lead = leadingBlanks ? ` ${leadingBlanks} leading blank${leadingBlanks > 1 ? "s" : ""} skipped.` : "";
   return {
@@ -129,10 +172,27 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
     boxCoxUsable: true,
     suggestedLambda: lambda.readable,
     lambda,
-    fix: interiorGaps.length ? "fill-gaps" : "none",
+    fix: tooMany ? "fill-gaps" : "none",
     shift: null,
     message: `Box-Cox ready. Suggested λ = ${fmt(lambda.readable)} (estimate ${fmt(lambda.lambda)} by ${how}).${lead}${gaps}${textNote}`,
   };
+}
+
+/**
+ * Zeros that look like closed periods: each sits alone between positive values (never first or
+ * last, never two together), there are no negatives, and with the other gaps they stay within
+ * MAX_MISSING_SHARE of the periods — so reading them as missing observations is a working fix.
+ */
+function isolatedZeros(numbers: readonly number[], missing: number, span: number): boolean {
+  let zeros = 0;
+  for (let k = 0; k < numbers.length; k++) {
+    const v = numbers[k];
+    if (v < 0) return false;
+    if (v !== 0) continue;
+    zeros++;
+    if (k === 0 || k === numbers.length - 1 || !(numbers[k - 1] > 0) || !(numbers[k + 1] > 0)) return false;
+  }
+  return zeros > 0 && zeros + missing <= MAX_MISSING_SHARE * span;
 }
 
 function listPositions(p: string[]): string {

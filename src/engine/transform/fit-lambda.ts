@@ -33,7 +33,12 @@ export interface LambdaChoice {
   onBound: "lower" | "upper" | null;
   /** Guerrero's window R, when that method was used. */
   window: number | null;
+  /** Guerrero's windows skipped for missing points (0 otherwise). */
+  skippedWindows: number;
+  /** Observed values used (missing ones, NaN, are not counted). */
   n: number;
+  /** Missing observations (NaN) in the series given. */
+  missing: number;
   /** A sentence a user can read, e.g. why λ sits on a bound. */
   note: string;
 }
@@ -42,7 +47,9 @@ export interface LambdaChoice {
  * Chooses λ for a positive series by Guerrero's method (default; Guerrero 1993) or by maximum
  * likelihood (Box & Cox 1964), and reports the likelihood-ratio interval (Box & Cox 1964) and a
  * readable λ. For Guerrero the interval is the range of λ the profile likelihood supports, so
- * the readable value is one the data do not reject.
+ * the readable value is one the data do not reject. Missing observations (NaN) are left out of the
+ * likelihood (it is of i.i.d. values, so only the observed points count); Guerrero's windows keep
+ * their places and skip those with too many missing points.
  * @example fitLambda(airPassengers, { method: "mle" }).readable // 0
  */
 export function fitLambda(values: readonly number[], options: FitLambdaOptions = {}): LambdaChoice {
@@ -54,15 +61,18 @@ export function fitLambda(values: readonly number[], options: FitLambdaOptions =
   if (!Number.isInteger(period) || period < 1) {
     throw new EngineError("input", `period must be a whole number of at least 1 (12 for monthly data, 4 for quarterly, 1 for none); got ${period}.`);
   }
-  const mle = lambdaMle(values, { lower: options.lower, upper: options.upper, level: options.level, label: options.label });
+  const observed = values.filter((v) => !Number.isNaN(v));
+  const mle = lambdaMle(observed, { lower: options.lower, upper: options.upper, level: options.level, label: options.label });
   let lambda = mle.lambda;
   let onBound = mle.onBound;
   let window: number | null = null;
+  let skippedWindows = 0;
   if (method === "guerrero") {
     const g = lambdaGuerrero(values, { window: period > 1 ? period : 2, lower: options.lower, upper: options.upper, label: options.label });
     lambda = g.lambda;
     onBound = g.onBound;
     window = g.window;
+    skippedWindows = g.skipped;
   }
   const notes: string[] = [];
   if (onBound) {
@@ -80,7 +90,9 @@ export function fitLambda(values: readonly number[], options: FitLambdaOptions =
     bounds: mle.bounds,
     onBound,
     window,
-    n: values.length,
+    skippedWindows,
+    n: observed.length,
+    missing: values.length - observed.length,
     note: notes.join(" "),
   };
 }

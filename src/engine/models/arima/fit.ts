@@ -6,6 +6,7 @@
 // autocorrelations (Jones 1980; Monahan 1984). Forecasts integrate the ARMA forecasts of the
 // differences back to levels; their variances use the filter's final state covariance (exact for
 // the finite sample, not the infinite-past approximation), and simulation runs the same recursion.
+import { countMissing } from "../../series/clean";
 import { EngineError } from "../../errors";
 import { createRandom } from "../../_lib/random";
 import { minimizeBfgs } from "../../_lib/bfgs";
@@ -189,6 +190,7 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
     method: formatArimaOrder(o) as `arima:${string}`,
     title,
     n,
+    missing: countMissing(w),
     period: o.m,
     params: Object.freeze(named),
     sigma,
