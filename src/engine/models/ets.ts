@@ -328,6 +328,7 @@ function buildModel(y: readonly number[], method: SmoothingMethod, period: numbe
     residuals,
     forecast: (h: number): StepMoments[] => stateSpaceMoments(form, sigma2, h),
     simulate: (h: number, paths: number, seed: number): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed),
+    simulateShocks: (h: number, paths: number, seed: number, shocks: Float64Array): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed, shocks),
   };
   return Object.freeze(model);
 }
@@ -364,7 +365,7 @@ function stateForm(spec: Spec, p: Smoothing, level: number, trend: number, ring:
   return { F, w, g, x };
 }
 
-function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number; ring: Float64Array }, n: number, sigma: number, h: number, paths: number, seed: number): Float64Array {
+function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number; ring: Float64Array }, n: number, sigma: number, h: number, paths: number, seed: number, shocks?: Float64Array): Float64Array {
   const rng = createRandom(seed);
   const out = new Float64Array(paths * h);
   const m = spec.m;
@@ -379,7 +380,7 @@ function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number;
     for (let j = 0; j < h; j++) {
       const k = (n + j) % m;
       const pb = phi * b;
-      const e = sigma * rng.normal();
+      const e = sigma * (shocks ? shocks[r * h + j] : rng.normal());
       out[r * h + j] = l + pb + ring[k] + e;
       l = l + pb + p.alpha * e;
       b = pb + beta * e;
