@@ -560,7 +560,7 @@ function singleCell(v: unknown, name: string): unknown {
  * @param {number} [period] Season length (default 1).
  * @param {number} [seed] Seed of the simulation, a whole number (default 1).
  * @param {number} [from] First step of the window (default 1): steps from..horizon of every series are summed.
- * @returns {any[][]} One row: mean, median, low, high of the total; then the low and high if the series moved independently.
+ * @returns One row: mean, median, low, high of the total; then the low and high if the series moved independently.
  */
 export async function TOTALACROSS(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number): Promise<any[][]> {
   return guardAsync(async () => {
