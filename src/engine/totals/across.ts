@@ -86,6 +86,8 @@ export interface TotalAcrossOptions {
   /** Simulated paths (default 10,000) and seed (default 1). */
   paths?: number;
   seed?: number;
+  /** The step means: "auto" (default: exact for λ ≥ 0, Taylor for λ < 0), "exact" or "taylor". */
+  mean?: "auto" | "exact" | "taylor";
 }
 
 /** The fewest common periods accepted for the correlation (our choice: fewer says too little). */
@@ -93,8 +95,8 @@ export const ACROSS_MIN_COMMON = 8;
 
 /**
  * The total over several fitted series (aligned: all ending at the same period) and steps
- * from..horizon. Mean: the sum of every series' step means (exact for λ ≥ 0, Taylor for λ < 0,
- * as in {@link fanTable}). Median and level% interval: `paths` joint simulations in which each
+ * from..horizon. Mean: the sum of every series' step means (by default exact for λ ≥ 0 and Taylor
+ * for λ < 0, as in {@link fanTable}; `mean` forces one). Median and level% interval: `paths` joint simulations in which each
  * step's standard-normal innovations are drawn together with correlation R, R the Pearson
  * correlation of the series' transformed-scale one-step residuals over the periods where every
  * series has one (METHODS §10); each series runs its own model with its own σ and λ; paths are
@@ -171,9 +173,11 @@ export function totalAcross(forecasters: readonly Forecaster[], horizon: number,
   // the means
   let mean: number | null = 0;
   let meanNote: string | null = null;
+  const meanOption = options.mean ?? "auto";
+  if (meanOption !== "auto" && meanOption !== "exact" && meanOption !== "taylor") throw new EngineError("input", `Unknown mean method "${String(meanOption)}". Use "auto", "exact" or "taylor".`);
   const series: AcrossSeries[] = forecasters.map((f) => {
-    const exact = f.lambda === null || f.lambda >= 0;
-    if (!exact) notes.push(`${f.label}: λ = ${fmt(f.lambda as number)} < 0, where no exact mean exists; its mean is the Taylor approximation.`);
+    const exact = meanOption === "exact" || (meanOption === "auto" && (f.lambda === null || f.lambda >= 0));
+    if (meanOption === "auto" && !exact) notes.push(`${f.label}: λ = ${fmt(f.lambda as number)} < 0, where no exact mean exists; its mean is the Taylor approximation.`);
     const rows = fanTable(f, H, { levels: [80], mean: exact ? "exact" : "taylor" }).rows;
     let s: number | null = 0;
     for (const r of rows) {

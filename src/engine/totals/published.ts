@@ -11,6 +11,7 @@ import { backtransformMeanExact, backtransformMeanTaylor } from "../distribution
 import { impliedLambda, meanFromInterval } from "../distribution/from-interval";
 import { normalQuantile } from "../distribution/normal";
 import { boxCoxInverseDetailed } from "../transform/box-cox";
+import { READABLE_LAMBDAS } from "../transform/readable";
 import { fitLocalLevelWidening, localLevelCorrelation, LocalLevelFit } from "./implied-dependence";
 
 /** How the months move together: inferred from the widths, none, perfect, or a common correlation. */
@@ -122,7 +123,8 @@ function readLambdaOption(x: unknown): number | "implied" {
 /**
  * The total of a forecast known only by monthly medians m_h and central intervals [L_h, U_h] of
  * one level, made on the Box-Cox scale λ (default 0; "implied" takes the median of the months'
- * implied λ). Each month gives μ_h = g(m_h) and σ_h = (g(U_h) − g(L_h))/(2z) (METHODS §4). The
+ * implied λ, or the readable value — 1, ½, ⅓, 0, −½, −1 — nearest to it when one lies within
+ * the months' range, since rounded figures scatter the months' values). Each month gives μ_h = g(m_h) and σ_h = (g(U_h) − g(L_h))/(2z) (METHODS §4). The
  * months' dependence is "implied" by fitting a local-level structure to how σ_h² widens
  * (METHODS §10; its correlation with the published σ_h as margins; when the fit is poor it falls
  * back to comonotone, the widest, with a note), "independent", "comonotone" (correlation 1: the
@@ -163,9 +165,16 @@ export function publishedTotal(medians: readonly number[], lowers: readonly numb
   if (lambdaOpt === "implied") {
     const ok = implied.filter((v): v is number => v !== null);
     if (ok.length === 0) throw new EngineError("input", 'No month\'s interval is symmetric on any Box-Cox scale between -5 and 5, so no λ is implied. Give lambda as a number (0 for a log-scale forecast).');
-    lambda = requireLambda(median(ok));
+    const mid = median(ok);
+    const lo = Math.min(...ok);
+    const hi = Math.max(...ok);
+    // a readable λ inside the months' own spread is as consistent with them as their median (rounded figures)
+    const readable = READABLE_LAMBDAS.filter((r) => r >= lo && r <= hi).sort((a, b) => Math.abs(a - mid) - Math.abs(b - mid))[0];
+    lambda = requireLambda(readable ?? mid);
     lambdaSource = "implied";
-    notes.push(`λ implied by the intervals: ${fmt(lambda)} (the median of the months' implied λ, which range from ${fmt(Math.min(...ok))} to ${fmt(Math.max(...ok))}).`);
+    notes.push(readable !== undefined
+      ? `λ implied by the intervals: ${fmt(lambda)} (the months' implied λ range from ${fmt(lo)} to ${fmt(hi)}, median ${fmt(mid)}; the readable value ${fmt(lambda)} lies within that range, so it is used).`
+      : `λ implied by the intervals: ${fmt(lambda)} (the median of the months' implied λ, which range from ${fmt(lo)} to ${fmt(hi)}).`);
   } else {
     lambda = lambdaOpt;
     lambdaSource = "given";
