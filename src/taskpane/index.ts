@@ -8,6 +8,7 @@ import { RawCell, parseLevels, backtestAsync } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
 import { auditView, checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
 import { pastedData } from "./paste";
+import { publishedView } from "./views/published";
 import { columnAddress, readSelection, writeFan } from "./excel-io";
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
@@ -210,6 +211,7 @@ function renderAll(): void {
   $("fw-source").textContent = problem ? `${state.data.source}: ${problem}` : state.data.source;
   renderSeriesSelect();
   renderAuditSelects();
+  renderPublishedSelects();
   if (problem) {
     state.checkRun++;
     state.checking = false;
@@ -292,6 +294,65 @@ function renderAuditSelects(): void {
   $("fw-audit-readout").replaceChildren();
   $("fw-audit-strip").replaceChildren();
   $("fw-audit-verdict").textContent = "";
+}
+
+function renderPublishedSelects(): void {
+  const names = state.data.names;
+  const guess = (re: RegExp, fallback: number): number => {
+    const i = names.findIndex((n) => re.test(n));
+    return i >= 0 ? i : Math.min(fallback, names.length - 1);
+  };
+  const picks: [string, number][] = [["fw-pub-median", guess(/median|point|forecast/i, 0)], ["fw-pub-lower", guess(/low/i, 1)], ["fw-pub-upper", guess(/up|high/i, 2)]];
+  for (const [id, pick] of picks) {
+    const sel = $<HTMLSelectElement>(id);
+    sel.replaceChildren(...names.map((n, j) => {
+      const o = el("option", n);
+      o.value = String(j);
+      return o;
+    }));
+    sel.value = String(Math.max(0, pick));
+  }
+  const m = /(\d+(?:\.\d+)?)/.exec(names[picks[1][1]] ?? "");
+  if (m && Number(m[1]) >= 50 && Number(m[1]) < 100) $<HTMLInputElement>("fw-pub-level").value = m[1];
+  $("fw-pub-readout").replaceChildren();
+  $("fw-pub-table").replaceChildren();
+  $("fw-pub-notes").textContent = "";
+}
+
+function renderPublished(): void {
+  const v = publishedView(state.data, Number($<HTMLSelectElement>("fw-pub-median").value), Number($<HTMLSelectElement>("fw-pub-lower").value), Number($<HTMLSelectElement>("fw-pub-upper").value),
+    Number($<HTMLInputElement>("fw-pub-level").value), $<HTMLInputElement>("fw-pub-lambda").value, $<HTMLSelectElement>("fw-pub-dependence").value);
+  const err = $("fw-pub-error");
+  const readout = $("fw-pub-readout");
+  readout.replaceChildren();
+  $("fw-pub-table").replaceChildren();
+  $("fw-pub-notes").textContent = "";
+  if (!v.ok) {
+    err.hidden = false;
+    err.textContent = v.message;
+    return;
+  }
+  err.hidden = true;
+  for (const [k, val] of v.lines) {
+    readout.appendChild(el("dt", k));
+    readout.appendChild(el("dd", val));
+  }
+  $("fw-pub-notes").textContent = v.total.notes.join(" ");
+  const table = el("table", undefined, "fw-table");
+  table.appendChild(el("caption", "Each month's mean (what a budget adds up) beside its published median."));
+  const head = el("tr");
+  for (const h of ["Month", "Median", "Mean", "Low", "High"]) {
+    const th = el("th", h);
+    th.scope = "col";
+    head.appendChild(th);
+  }
+  table.appendChild(head);
+  for (const r of v.rows) {
+    const tr = el("tr");
+    for (const c of [r.label, fmtCell(r.median), fmtCell(r.mean), fmtCell(r.lower), fmtCell(r.upper)]) tr.appendChild(el("td", c));
+    table.appendChild(tr);
+  }
+  $("fw-pub-table").appendChild(table);
 }
 
 function renderAudit(): void {
@@ -447,6 +508,8 @@ function wire(): void {
   });
   $("fw-write-go").addEventListener("click", () => void writeToSheet());
   $("fw-audit-go").addEventListener("click", renderAudit);
+  $("fw-pub-go").addEventListener("click", renderPublished);
+  $("fw-pub-controls").addEventListener("submit", (e) => e.preventDefault());
   $("fw-audit-controls").addEventListener("submit", (e) => e.preventDefault());
   $("fw-backtest-go").addEventListener("click", () => void runBacktest());
   $("fw-demo-log-go").addEventListener("click", () => {
