@@ -134,3 +134,9 @@ describe("series of different lengths and bad input", () => {
     expect(() => totalAcross(fs, 6, { from: 7 })).toThrow(/from \(7\) is after horizon \(6\)/);
   });
 });
+
+test("a method that cannot yet be simulated jointly (ARIMA) is refused, naming the series and what to do", () => {
+  const { history } = generate(9, 48, 0);
+  const fs = [fitForecast(history[0], { method: "naive", lambda: 0, label: "shop 1" }), fitForecast(history[1], { method: "arima:0,1,1", lambda: 0, label: "shop 2" })];
+  expect(() => totalAcross(fs, 6)).toThrow(/shop 2's method \(arima.*\) cannot yet be simulated jointly with other series; choose another method/);
+});
