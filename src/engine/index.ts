@@ -58,8 +58,17 @@ export { stateSpaceMoments } from "./models/state-space";
 export type { StateSpaceForm } from "./models/state-space";
 export { fitForecast, checkHorizon } from "./models/fit";
 export type { Forecaster, ForecastOptions, LambdaSpec } from "./models/fit";
-export { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels } from "./models/fan";
+export { fanTable, quantileTable, totalForecast, checkWindowStart, describeForecaster, parseLevels } from "./models/fan";
 export type { FanRow, FanTable, Maybe, TotalForecast, DescriptionRow } from "./models/fan";
+
+export { publishedTotal, parseDependence } from "./totals/published";
+export type { DependenceSpec, PublishedMonth, PublishedTotal, PublishedTotalOptions, TotalRange } from "./totals/published";
+export { fitLocalLevelWidening, localLevelCorrelation, IMPLIED_FIT_TOLERANCE } from "./totals/implied-dependence";
+export type { LocalLevelFit } from "./totals/implied-dependence";
+export { alignSeries, totalAcross, ACROSS_MIN_COMMON } from "./totals/across";
+export type { AlignedColumns, AcrossSeries, AcrossTotal, TotalAcrossOptions } from "./totals/across";
+export { smearingMean } from "./totals/smearing";
+export type { SmearingMean } from "./totals/smearing";
 
 export { hitSequence } from "./audit/hits";
 export type { HitSequence } from "./audit/hits";

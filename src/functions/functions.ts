@@ -6,6 +6,7 @@ import {
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
 import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
+import { publishedTotal, parseDependence, alignSeries, totalAcross, smearingMean, checkWindowStart, Forecaster } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs } from "./coerce";
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
@@ -271,7 +272,7 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
       const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
       results.push(f(fc, s.names[j]));
     } catch (e) {
-      if (e instanceof EngineError && /^horizon|^levels|^each level|^probs|^each probability/.test(e.message)) throw e;
+      if (e instanceof EngineError && /^horizon|^levels|^each level|^probs|^each probability|^from /.test(e.message)) throw e;
       results.push(onError(toExcelError(e), s.names[j]));
     }
   }
@@ -351,17 +352,19 @@ export async function QUANTILES(values: any[][], horizon: number, probs: any[][]
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
  * @param {number} [seed] Seed of the simulation, a whole number (default 1): the same seed gives the same answer on every recalculation.
+ * @param {number} [from] First step of the window to add up (default 1): steps from..horizon are summed, e.g. from 8 and horizon 19 for next January–December after a history ending in May.
  * @returns One row per series: mean, median, low, high.
  */
-export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number): Promise<any[][]> {
+export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number): Promise<any[][]> {
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period);
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const sd = optionalInteger(seed, "seed", 1, 0);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const start = checkWindowStart(optionalInteger(from, "from", 1, 1), h);
     const { results } = await eachSeries(values, args, (fc) => {
-      const t = totalForecast(fc, h, { level: lv, seed: sd });
+      const t = totalForecast(fc, h, { level: lv, seed: sd, from: start });
       return [cell(t.mean), t.median, t.interval[0], t.interval[1] ?? naCell("The total's upper end is unbounded at this λ.")];
     }, (err) => [err, err, err, err]);
     return finiteTable(results);
@@ -485,5 +488,129 @@ export async function BACKTEST(values: any[][], horizon: number, method?: string
     if (s.series.length !== 1) throw new EngineError("input", `FW.BACKTEST checks one series at a time; the range has ${s.series.length} columns.`);
     const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, yieldToHost);
     return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? ""]));
+  });
+}
+
+/** Reads one column (or row) of published figures; trailing rows blank in every column are dropped. */
+function publishedColumns(medians: unknown, lowers: unknown, uppers: unknown): { m: number[]; l: number[]; u: number[] } {
+  const cols = [column(medians, "medians"), column(lowers, "lowers"), column(uppers, "uppers")];
+  const names = ["medians", "lowers", "uppers"];
+  const blank = (c: RawCell): boolean => c === null || c === undefined || (typeof c === "string" && c.trim() === "");
+  // a header cell of text on top of all three is allowed
+  if (cols.every((c) => typeof c[0] === "string" && !blank(c[0]))) cols.forEach((c, k) => (cols[k] = c.slice(1)));
+  const n = Math.max(...cols.map((c) => c.length));
+  let last = -1;
+  for (let i = 0; i < n; i++) if (cols.some((c) => i < c.length && !blank(c[i]))) last = i;
+  if (last < 0) throw new EngineError("input", "medians, lowers and uppers hold no numbers; select the published forecast's three columns.");
+  const out = cols.map((c, k) => {
+    if (c.length < last + 1) throw new EngineError("input", `medians, lowers and uppers must have one value per month; ${names[k]} has ${c.length} and another has ${last + 1}.`);
+    return c.slice(0, last + 1).map((v, i) => {
+      if (typeof v === "number") return v;
+      if (blank(v)) throw new EngineError("input", `${names[k]} is blank in month ${i + 1}; every month needs a median, a lower and an upper end.`);
+      throw new EngineError("input", `${names[k]} in month ${i + 1} is not a number (${JSON.stringify(String(v)).slice(0, 24)}).`);
+    });
+  });
+  return { m: out[0], l: out[1], u: out[2] };
+}
+
+/**
+ * Total of a forecast published elsewhere as monthly medians and intervals (e.g. next year's budget): mean, median and interval of the total, with the range from independent to perfectly dependent months beside it.
+ * @customfunction TOTALFROMINTERVALS
+ * @helpurl https://localhost:3000/README.html#fwtotalfromintervals
+ * @param {any[][]} medians The published monthly medians (point forecasts), > 0, one per row (a header cell is allowed).
+ * @param {any[][]} lowers The lower ends of the published central intervals, same rows.
+ * @param {any[][]} uppers The upper ends, same rows.
+ * @param {number} level The intervals' coverage in percent (e.g. 80 or 95); the total's interval has the same level.
+ * @param {any} [lambda] The Box-Cox λ the forecast was made on: a number (default 0, the log) or "implied" (from the intervals' asymmetry, as FW.IMPLIEDLAMBDA).
+ * @param {any} [dependence] How the months move together: "implied" (default: from how the intervals widen), "independent", "comonotone" (perfectly together), or a correlation from 0 to 1.
+ * @returns {any[][]} One row: mean, median, low, high of the total; then the low and high under independent months and under comonotone months.
+ */
+export function TOTALFROMINTERVALS(medians: any[][], lowers: any[][], uppers: any[][], level: number, lambda?: any, dependence?: any): any[][] {
+  return guard(() => {
+    const lv = requiredNumber(level, "level");
+    checkLevelPercent(lv);
+    const rawLambda = singleCell(lambda, "lambda");
+    const lam = rawLambda === null || rawLambda === undefined || rawLambda === "" ? 0 : readLambda(rawLambda);
+    const dep = parseDependence(singleCell(dependence, "dependence"));
+    const { m, l, u } = publishedColumns(medians, lowers, uppers);
+    const t = publishedTotal(m, l, u, lv, { lambda: lam, dependence: dep });
+    const unbounded = naCell("The total's upper end is unbounded at this λ (past its pole).");
+    return finiteTable([[
+      t.mean ?? naCell(t.notes.find((n) => /mean/.test(n)) ?? "The total's mean does not exist."), t.median, t.interval[0], t.interval[1] ?? unbounded,
+      t.independent.interval[0], t.independent.interval[1] ?? unbounded, t.comonotone.interval[0], t.comonotone.interval[1] ?? unbounded,
+    ]]);
+  });
+}
+
+function singleCell(v: unknown, name: string): unknown {
+  if (!Array.isArray(v)) return v;
+  if (v.length === 1 && Array.isArray(v[0]) && v[0].length === 1) return v[0][0];
+  throw new EngineError("input", `${name} must be a single cell.`);
+}
+
+/**
+ * Company total over several series (one per column) and the next periods: mean, median and interval of the sum, simulated jointly with the series' errors correlated as in their history, and the interval if they were independent.
+ * @customfunction TOTALACROSS
+ * @helpurl https://localhost:3000/README.html#fwtotalacross
+ * @param {any[][]} values The histories: one series per column (at least two; a header row of names is allowed), positive numbers, same rows = same periods.
+ * @param {number} horizon Last step to add up (e.g. 12 for the next year of months).
+ * @param {string} [method] Forecasting method for every series (default "auto"); see FW.FAN.
+ * @param {any} [lambda] Box-Cox λ: a number, "auto" (default, chosen per series), "guerrero", "mle" or "none".
+ * @param {number} [level] Interval level in percent (default 95).
+ * @param {number} [period] Season length (default 1).
+ * @param {number} [seed] Seed of the simulation, a whole number (default 1).
+ * @param {number} [from] First step of the window (default 1): steps from..horizon of every series are summed.
+ * @returns One row: mean, median, low, high of the total; then the low and high if the series moved independently.
+ */
+export async function TOTALACROSS(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number): Promise<any[][]> {
+  return guardAsync(async () => {
+    const args = forecastArgs(method, lambda, period);
+    const lv = optionalNumber(level, "level", 95);
+    checkLevelPercent(lv);
+    const sd = optionalInteger(seed, "seed", 1, 0);
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const start = checkWindowStart(optionalInteger(from, "from", 1, 1), h);
+    const s = readSeries(values);
+    if (s.series.length < 2) throw new EngineError("input", `FW.TOTALACROSS adds up several series, one per column; the range has ${s.series.length}. For one series use FW.TOTAL.`);
+    const aligned = alignSeries(s.series, s.names, 1 + s.headerRows);
+    const fs: Forecaster[] = [];
+    for (let j = 0; j < aligned.columns.length; j++) {
+      if (j > 0) await yieldToHost();
+      try {
+        fs.push(cachedForecast(aligned.columns[j], { method: args.method, lambda: args.lambda, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows }));
+      } catch (e) {
+        if (e instanceof EngineError) throw new EngineError(e.code, `${s.names[j]}: ${e.message}`);
+        throw e;
+      }
+    }
+    await yieldToHost();
+    const t = totalAcross(fs, h, { level: lv, seed: sd, from: start });
+    const unbounded = naCell("The total's upper end is unbounded at this λ (past its pole).");
+    return finiteTable([[
+      t.mean ?? naCell(t.meanNote ?? "The total's mean does not exist."), t.median, t.interval[0], t.interval[1] ?? unbounded,
+      t.independent.interval[0], t.independent.interval[1] ?? unbounded,
+    ]]);
+  });
+}
+
+/**
+ * Mean on the original scale by Duan's smearing estimate: the average of the back-transformed point forecast plus each residual, for a log or Box-Cox model whose residuals need not be normal.
+ * @customfunction SMEARMEAN
+ * @helpurl https://localhost:3000/README.html#fwsmearmean
+ * @param {any[][]} mu Point forecast on the transformed scale (a cell or a range).
+ * @param {any[][]} residuals The model's residuals on the transformed scale (actual minus fitted), at least two; blank cells are skipped.
+ * @param {number} lambda The Box-Cox λ of the model's scale (0 = log).
+ * @returns {any[][]} The mean on the original scale, same shape as mu.
+ */
+export function SMEARMEAN(mu: any[][], residuals: any[][], lambda: number): any[][] {
+  return guard(() => {
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
+    const e: number[] = [];
+    readMatrix(residuals, "residuals").forEach((row, i) => row.forEach((c, j) => {
+      if (c === null || c === undefined || (typeof c === "string" && c.trim() === "")) return;
+      if (typeof c !== "number") throw new EngineError("input", `residuals row ${i + 1}, column ${j + 1} is not a number (${JSON.stringify(String(c)).slice(0, 24)}); residuals must be numbers.`);
+      e.push(c);
+    }));
+    return elementwise([{ name: "mu", cells: readMatrix(mu, "mu") }], (a) => smearingMean(a, e, l).mean);
   });
 }

@@ -5,8 +5,9 @@ import { backtestCommand } from "./backtest";
 import { demoCommand } from "./demo";
 import { fanCommand } from "./fan";
 import { lambdaCommand } from "./lambda";
+import { publishedCommand } from "./published";
 import { screenCommand } from "./screen";
 import { totalCommand } from "./total";
 
 /** The commands by name, in the order help lists them. */
-export const COMMANDS: readonly Command[] = [screenCommand, lambdaCommand, fanCommand, totalCommand, auditCommand, backtestCommand, demoCommand];
+export const COMMANDS: readonly Command[] = [screenCommand, lambdaCommand, fanCommand, totalCommand, publishedCommand, auditCommand, backtestCommand, demoCommand];

@@ -137,8 +137,10 @@ export function fitBenchmark(y: readonly number[], method: BenchmarkMethod, peri
     for (let h = 1; h <= H; h++) out.push({ h, mean: point(h), sd: Math.sqrt(sigma2 * factor(h)) });
     return out;
   };
-  const simulate = (H: number, paths: number, seed: number): Float64Array => {
+  const simulate = (H: number, paths: number, seed: number, shocks?: Float64Array): Float64Array => {
     const rng = createRandom(seed);
+    // one-step innovations: given (correlated across series) or drawn here
+    const shock = shocks ? (r: number, j: number): number => shocks[r * H + j] : (): number => rng.normal();
     const sigma = Math.sqrt(sigma2);
     const out = new Float64Array(paths * H);
     for (let r = 0; r < paths; r++) {
@@ -146,23 +148,23 @@ export function fitBenchmark(y: readonly number[], method: BenchmarkMethod, peri
       if (method === "mean") {
         // the mean is estimated: one shared error of variance σ²/n_obs, plus a fresh shock each step
         const shared = (sigma / Math.sqrt(nObs)) * rng.normal();
-        for (let j = 0; j < H; j++) out[o + j] = mean + shared + sigma * rng.normal();
+        for (let j = 0; j < H; j++) out[o + j] = mean + shared + sigma * shock(r, j);
       } else if (method === "naive" || method === "drift") {
         // drift: the estimate's own error (variance σ²/(T − 1)) is drawn once per path
         const c = method === "drift" ? drift + (sigma / Math.sqrt(T - 1)) * rng.normal() : 0;
         let w = last;
         for (let j = 0; j < H; j++) {
-          w += c + sigma * rng.normal();
+          w += c + sigma * shock(r, j);
           out[o + j] = w;
         }
       } else {
         for (let j = 0; j < H; j++) {
           if (j >= m) {
-            out[o + j] = out[o + j - m] + sigma * rng.normal();
+            out[o + j] = out[o + j - m] + sigma * shock(r, j);
           } else {
             // from the season's last observed value: one shock per season since then
             const src = seasonalSource(j + 1);
-            out[o + j] = y[src.t] + sigma * Math.sqrt(src.seasons) * rng.normal();
+            out[o + j] = y[src.t] + sigma * Math.sqrt(src.seasons) * shock(r, j);
           }
         }
       }
@@ -182,6 +184,7 @@ export function fitBenchmark(y: readonly number[], method: BenchmarkMethod, peri
     k,
     residuals: Object.freeze(resid),
     forecast,
-    simulate,
+    simulate: (H: number, paths: number, seed: number): Float64Array => simulate(H, paths, seed),
+    simulateShocks: (H: number, paths: number, seed: number, shocks: Float64Array): Float64Array => simulate(H, paths, seed, shocks),
   });
 }

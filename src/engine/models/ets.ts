@@ -376,6 +376,7 @@ function buildModel(y: readonly number[], method: SmoothingMethod, period: numbe
     residuals,
     forecast: (h: number): StepMoments[] => stateSpaceMoments(form, sigma2, h),
     simulate: (h: number, paths: number, seed: number): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed),
+    simulateShocks: (h: number, paths: number, seed: number, shocks: Float64Array): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed, undefined, shocks),
   };
   return Object.freeze(model);
 }
@@ -430,6 +431,7 @@ function buildModelWithGaps(y: readonly number[], method: SmoothingMethod, perio
     residuals: Object.freeze(Array.from(r.residuals)),
     forecast: (h: number): StepMoments[] => stateSpaceMoments(form, sigma2, h, Pt),
     simulate: (h: number, paths: number, seed: number): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed, { factor, d, s0 }),
+    simulateShocks: (h: number, paths: number, seed: number, shocks: Float64Array): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed, { factor, d, s0 }, shocks),
   };
   return Object.freeze(model);
 }
@@ -469,9 +471,10 @@ function stateForm(spec: Spec, p: Smoothing, level: number, trend: number, ring:
 /**
  * Sample paths from the final states. With `uncertain` (a series with gaps), each path first
  * draws its state at T from N(x̂_T, σ²P̃_T) through a factor C with C C′ = P̃_T, then runs the
- * recursion.
+ * recursion. With `shocks` (standard normals, paths × h), those drive the steps instead of the
+ * generator (joint simulation across series).
  */
-function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number; ring: Float64Array }, n: number, sigma: number, h: number, paths: number, seed: number, uncertain?: { factor: Float64Array; d: number; s0: number }): Float64Array {
+function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number; ring: Float64Array }, n: number, sigma: number, h: number, paths: number, seed: number, uncertain?: { factor: Float64Array; d: number; s0: number }, shocks?: Float64Array): Float64Array {
   const rng = createRandom(seed);
   const out = new Float64Array(paths * h);
   const m = spec.m;
@@ -499,7 +502,7 @@ function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number;
     for (let j = 0; j < h; j++) {
       const k = (n + j) % m;
       const pb = phi * b;
-      const e = sigma * rng.normal();
+      const e = sigma * (shocks ? shocks[r * h + j] : rng.normal());
       out[r * h + j] = l + pb + ring[k] + e;
       l = l + pb + p.alpha * e;
       b = pb + beta * e;

@@ -103,8 +103,10 @@ export function quantileTable(f: Forecaster, horizon: number, probs: readonly nu
   return f.forecast(H).map((s) => z.map((zi, j) => inverseOf(f, s.mean + zi * s.sd, `the ${fmt(probs[j])} quantile`)));
 }
 
-/** A forecast of the total over steps 1..H. */
+/** A forecast of the total over steps from..H. */
 export interface TotalForecast {
+  /** First step of the window (1 = the next period). */
+  from: number;
   horizon: number;
   level: number;
   /** Sum of the per-step means (exact by linearity of expectation). */
@@ -121,7 +123,23 @@ export interface TotalForecast {
 }
 
 /**
- * The total over steps 1..H (e.g. a year's budget from monthly forecasts): the mean is the sum of
+ * Checks the first step of a window from..horizon: a whole number from 1 to horizon.
+ * @example checkWindowStart(8, 19) // 8
+ */
+export function checkWindowStart(from: unknown, horizon: number): number {
+  if (from === undefined || from === null) return 1;
+  if (typeof from !== "number" || !Number.isFinite(from) || !Number.isInteger(from) || from < 1) {
+    throw new EngineError("input", `from (the first step of the window) must be a whole number of at least 1; got ${typeof from === "number" ? fmt(from) : String(from)}.`);
+  }
+  if (from > horizon) {
+    throw new EngineError("input", `from (${from}) is after horizon (${horizon}): the window from..horizon is empty. Give from ≤ horizon, e.g. from 8 and horizon 19 for January–December of next year after a history ending in May.`);
+  }
+  return from;
+}
+
+/**
+ * The total over steps from..H (default from 1; e.g. a year's budget from monthly forecasts, or
+ * steps 8..19 for next calendar year after a May history end): the mean is the sum of
  * the per-step means, exactly, whatever the dependence between steps; medians do not add, so the
  * median and central interval of the total come from `paths` sample paths simulated on the
  * transformed scale with the model's own recursion (seeded), back-transformed and summed
@@ -129,8 +147,9 @@ export interface TotalForecast {
  * the simulation's precision is visible.
  * @example totalForecast(f, 12, { level: 95 }).mean.value // Σ of the 12 monthly means
  */
-export function totalForecast(f: Forecaster, horizon: number, options: { level?: number; paths?: number; seed?: number; mean?: MeanMethod } = {}): TotalForecast {
+export function totalForecast(f: Forecaster, horizon: number, options: { level?: number; paths?: number; seed?: number; mean?: MeanMethod; from?: number } = {}): TotalForecast {
   const H = checkHorizon(horizon, f.n);
+  const from = checkWindowStart(options.from, H);
   const level = options.level ?? 95;
   requireLevelPercent(level);
   const paths = options.paths ?? 10000;
@@ -142,6 +161,7 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
   let meanSum: number | null = 0;
   let meanNote: string | null = null;
   for (const s of f.forecast(H)) {
+    if (s.h < from) continue;
     const m = meanOf(f, s.mean, s.sd, meanMethod);
     if (m.value === null) {
       meanSum = null;
@@ -162,7 +182,7 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
   for (let r = 0; r < paths; r++) {
     let t = 0;
     const o = r * H;
-    for (let j = 0; j < H; j++) {
+    for (let j = from - 1; j < H; j++) {
       const w = sims[o + j];
       if (lam === null) t += w;
       else if (logScale) t += exp(w);
@@ -203,6 +223,7 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
     meanNote = "The total's mean is too large to represent.";
   }
   return {
+    from,
     horizon: H,
     level,
     mean: { value: meanSum, note: meanNote },

@@ -66,6 +66,8 @@ export interface Forecaster {
   forecast(h: number): StepMoments[];
   /** Sample paths on the transformed scale, row-major paths × h. */
   simulate(h: number, paths: number, seed: number): Float64Array;
+  /** Sample paths driven by given standard-normal innovations (see FittedModel.simulateShocks); null when the model cannot. */
+  readonly simulateShocks: ((h: number, paths: number, seed: number, shocks: Float64Array) => Float64Array) | null;
 }
 
 function parseLambda(spec: LambdaSpec | string | undefined): LambdaSpec {
@@ -187,6 +189,7 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
       ...base, method, model: null, auto: null, notes: Object.freeze(notes),
       forecast: (h: number): StepMoments[] => Array.from({ length: h }, (_, i) => ({ h: i + 1, mean: v, sd: 0 })),
       simulate: (h: number, paths: number): Float64Array => new Float64Array(paths * h).fill(v),
+      simulateShocks: (h: number, paths: number): Float64Array => new Float64Array(paths * h).fill(v),
     });
   }
 
@@ -220,5 +223,6 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
     notes: Object.freeze(notes),
     forecast: (h: number): StepMoments[] => m.forecast(h),
     simulate: (h: number, paths: number, seed: number): Float64Array => m.simulate(h, paths, seed),
+    simulateShocks: m.simulateShocks ? (h: number, paths: number, seed: number, shocks: Float64Array): Float64Array => (m.simulateShocks as NonNullable<FittedModel["simulateShocks"]>)(h, paths, seed, shocks) : null,
   });
 }

@@ -40,4 +40,11 @@ export interface FittedModel {
   readonly residuals: readonly number[];
   forecast(h: number): StepMoments[];
   simulate(h: number, paths: number, seed: number): Float64Array;
+  /**
+   * Sample paths driven by given standard-normal one-step innovations (`shocks`, paths × h,
+   * row-major, each scaled by the model's σ) instead of fresh draws; any other random part (a
+   * parameter's estimation error) still comes from `seed`. Used to simulate several series with
+   * correlated innovations. Optional: a model without it cannot be totalled across series.
+   */
+  simulateShocks?(h: number, paths: number, seed: number, shocks: Float64Array): Float64Array;
 }
