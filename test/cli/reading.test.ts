@@ -51,6 +51,6 @@ describe("CSV reading through `fanwise fan` (RFC 4180; common practice for thous
   test("the CSV output quotes the name again with doubled quotes (RFC 4180 §2.7)", () => {
     const csv = runCli(["fan", path.join(dir, "shops.csv"), "--horizon", "1", "--method", "naive", "--lambda", "none"]);
     expect(csv.code).toBe(0);
-    expect(csv.out.split("\n")[1]).toMatch(/^"Harbour ""North"" shop",1,naive,/);
+    expect(csv.out.split("\n")[1]).toMatch(/^"Harbour ""North"" shop",/);
   });
 });
