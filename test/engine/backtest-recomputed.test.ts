@@ -13,10 +13,13 @@ function winkler(l: number, u: number, y: number, alpha: number): number {
 
 describe("backtest rows equal a per-origin recomputation (Tashman 2000; Winkler 1972 / Gneiting & Raftery 2007 eq. 43)", () => {
   const cases = [
-    { data: "airmiles", method: "naive", lambda: 0, level: 80, first: 10, H: 3, period: 1 },
-    { data: "AirPassengers", method: "seasonal-naive", lambda: 0.5, level: 95, first: 120, H: 4, period: 12 },
-    { data: "nile", method: "ses", lambda: "none", level: 50, first: 80, H: 2, period: 1 },
+    { data: "airmiles", method: "drift", lambda: 0, level: 70, first: 10, H: 3, period: 1 },
+    { data: "AirPassengers", method: "seasonal-naive", lambda: 0.5, level: 80, first: 120, H: 4, period: 12 },
+    { data: "nile", method: "ses", lambda: "none", level: 60, first: 80, H: 2, period: 1 },
+    { data: "lynx", method: "ses", lambda: 0, level: 90, first: 90, H: 3, period: 1 },
   ] as const;
+  // Each case has misses at every step (else the score would not depend on α at all), and no
+  // level is 50% (where α = 1 − level/100 and α = level/100 coincide).
   for (const c of cases) {
     test(`${c.data}, ${c.method}, λ = ${c.lambda}, ${c.level}% intervals, first = ${c.first}, H = ${c.H}`, () => {
       const y = dataset(c.data);
@@ -41,6 +44,7 @@ describe("backtest rows equal a per-origin recomputation (Tashman 2000; Winkler 
       expect(bt.rows).toHaveLength(c.H);
       bt.rows.forEach((row, j) => {
         const a = acc[j];
+        expect(a.inside).toBeLessThan(a.n);
         expect(row.origins).toBe(a.n);
         expect(row.origins).toBe(y.length - c.first - j);
         expectClose(row.coverage as number, a.inside / a.n, { rtol: 1e-12 }, `coverage h=${j + 1}`);
