@@ -2,7 +2,8 @@
 //  - every model's paths have, step by step, the mean and variance of its analytic forecast
 //    distribution (the state-space moments of Hyndman, Koehler, Ord & Snyder 2008, eqs. 6.1–6.2,
 //    themselves checked against statsmodels in ets.test.ts; the benchmark variance rules of
-//    METHODS §3, checked against numpy in forecast.test.ts);
+//    METHODS §3, checked against numpy in forecast.test.ts; ARIMA's Kalman-filter forecast moments,
+//    checked against statsmodels SARIMAX in the ARIMA tests);
 //  - with no transform the mean method's total is exactly normal: Σ_h (ȳ + e + ε_h) with
 //    e ~ N(0, σ²/T) shared and ε_h ~ N(0, σ²) fresh gives N(H·ȳ, σ²(H + H²/T)) (sum of normals,
 //    common practice);
@@ -80,6 +81,11 @@ describe("every model's simulated paths have its analytic per-step means and var
       expectPathsMatchMoments(f, H, `fitted ${method}`);
     }
   });
+  for (const method of ["arima:1,1,0", "arima:0,1,1/0,1,1", "arima:2,0,0+c", "arima:0,1,0+c"]) {
+    test(`${method} (fitted, no transform): paths against the Kalman-filter forecast moments`, () => {
+      expectPathsMatchMoments(fitForecast(trending, { method, lambda: "none", period: m }), H, method);
+    });
+  }
   test("seasonal naive reads exactly the last season (paths start from y_{T−m+j}; METHODS §3)", () => {
     const model = fitBenchmark(trending, "seasonal-naive", m);
     const T = trending.length;
