@@ -67,7 +67,7 @@ describe("fanwise demo", () => {
     expect(s["Larkfield"].leadingBlanks).toBe(27);
     expect(s["Harbour Street"].boxCoxUsable).toBe(true);
     const l = runCli(["lambda", csv, "--period", "12", "--json"]);
-    expect(l.code).toBe(0);
+    expect(l.code).toBe(3); // some series failed (Old Quay, Parts costs), the others computed
     expect(JSON.parse(l.out).series["Old Quay"].error).toMatch(/line 40/);
     expect(l.err).toMatch(/Old Quay/);
   });

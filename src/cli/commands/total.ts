@@ -1,8 +1,8 @@
 // fanwise total: the total over the next H periods — its mean (the sum of the means), median and
 // interval from seeded simulated paths.
 import { isEngineError, totalForecast } from "../../engine";
-import { Command, COMMON } from "../command";
-import { seriesError, writeOutput } from "../output";
+import { Command, COMMON, IO_OPTIONS } from "../command";
+import { emit, exitCode, seriesError } from "../output";
 import { atLines, errorMessage, fitAll, readSeriesFile } from "../series-input";
 
 export const totalCommand: Command = {
@@ -19,16 +19,16 @@ export const totalCommand: Command = {
     paths: { type: { kind: "int", min: 100 }, value: "P", help: "number of simulated paths", example: "20000", default: "10000" },
     mean: COMMON.mean,
     zeros: COMMON.zeros,
-    json: COMMON.json,
+    ...IO_OPTIONS,
   },
   examples: ["fanwise total sales.csv --horizon 12 --period 12", "fanwise total sales.csv --horizon 12 --level 80 --seed 7 --json"],
-  run(p, io) {
+  async run(p, io) {
     const H = p.int("horizon") as number;
     const level = p.num("level") ?? 95;
     const seed = p.int("seed") ?? 1;
     const paths = p.int("paths") ?? 10000;
     const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
-    const data = readSeriesFile(p);
+    const data = await readSeriesFile(p, io);
     const results = fitAll(p, data).map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
@@ -39,7 +39,8 @@ export const totalCommand: Command = {
         return { name: x.name, error: errorMessage(e) };
       }
     });
-    writeOutput(io, p.has("json"), {
+    await emit(io, p, {
+      command: "total",
       json: () => {
         const series: Record<string, unknown> = {};
         for (const r of results) {
@@ -57,8 +58,11 @@ export const totalCommand: Command = {
       rows: () => results.map((r) => (!("t" in r) || !r.t)
         ? [r.name, H, "", "", "", "", "", "", level, "", "", r.error]
         : [r.name, H, r.method, r.lambda === null ? "none" : r.lambda, r.t.mean.value, r.t.median, r.t.interval[0], r.t.interval[1], r.t.level, r.t.paths, r.t.monteCarloError, [r.t.mean.note, ...r.t.notes].filter(Boolean).join(" ")]),
+      formats: { lambda: "0.000" },
+      cautions: [...data.notes, ...results.flatMap((r) => ("t" in r && r.t ? [] : [`${r.name}: ${r.error}`]))],
     });
     for (const r of results) if (!("t" in r) || !r.t) seriesError(io, r.name, r.error);
-    return 0;
+    const ok = results.filter((r) => "t" in r && r.t).length;
+    return exitCode(ok, results.length - ok);
   },
 };
