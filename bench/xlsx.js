@@ -46,8 +46,9 @@ async function write(file, rows) {
   const r = timeBin ? spawnSync(timeBin, ["-v", process.execPath, ...args], { encoding: "utf8", maxBuffer: 1 << 28 }) : spawnSync(process.execPath, args, { encoding: "utf8", maxBuffer: 1 << 28 });
   const secs = (Date.now() - t1) / 1000;
   const peak = timeBin ? Number((/Maximum resident set size \(kbytes\): (\d+)/.exec(r.stderr) || [])[1]) * 1024 : NaN;
+  const cpu = timeBin ? ["User", "System"].map((k) => Number((new RegExp(`${k} time \\(seconds\\): ([\\d.]+)`).exec(r.stderr) || [])[1])).reduce((a, b) => a + b, 0) : NaN;
   const series = r.status === 0 ? Object.keys(JSON.parse(r.stdout).series).length : 0;
-  console.log(`fanwise screen: exit ${r.status}, ${series} series, ${secs.toFixed(1)} s, peak resident memory ${Number.isFinite(peak) ? (peak / 1e6).toFixed(0) + " MB" : "not measured"}`);
+  console.log(`fanwise screen: exit ${r.status}, ${series} series, ${secs.toFixed(1)} s wall clock (${Number.isFinite(cpu) ? cpu.toFixed(1) + " s CPU" : "CPU not measured"}), load average ${os.loadavg()[0].toFixed(1)}, peak resident memory ${Number.isFinite(peak) ? (peak / 1e6).toFixed(0) + " MB" : "not measured"}`);
   if (r.status !== 0) console.log(r.stderr.split("\n").filter((l) => l.startsWith("fanwise")).join("\n"));
   fs.rmSync(dir, { recursive: true, force: true });
 })();

@@ -1,6 +1,6 @@
 // What every command file exports: its name, its one-line summary, its arguments and its option
 // table (the single declaration that parsing, usage errors and help come from), and its run.
-import { METHODS, parseMethod } from "../engine";
+import { METHODS, isEngineError, parseMethod } from "../engine";
 import { Io } from "./output";
 import { OptionSpec, OptionTable, ParsedArgs, switchOption, usageError } from "./options";
 
@@ -45,8 +45,9 @@ export function checkLambda(v: string, name: string): string {
 export function checkMethod(v: string, name: string): string {
   try {
     return parseMethod(v);
-  } catch {
-    throw usageError(`--${name} must be one of ${METHODS.join(", ")}; got "${v}".`);
+  } catch (e) {
+    if (isEngineError(e) && !/^Unknown method/.test(e.message)) throw usageError(`--${name}: ${e.message}`); // e.g. an ARIMA order out of bounds
+    throw usageError(`--${name} must be one of ${METHODS.join(", ")}, or an ARIMA order such as arima:0,1,1; got "${v}".`);
   }
 }
 
