@@ -86,7 +86,7 @@ describe("exit codes", () => {
     expect(r.err).toMatch(/closed: Not Box-Cox ready/);
   });
   const usage: [string, string[], RegExp][] = [
-    ["an unknown method", ["fan", MIXED, "--horizon", "3", "--method", "hw"], /--method must be one of mean, naive, .*damped-holt-winters, auto.*, or an ARIMA order such as arima:0,1,1; got "hw"\./],
+    ["an unknown method", ["fan", MIXED, "--horizon", "3", "--method", "hw"], /--method must be one of mean, naive, .*damped-holt-winters, .*auto, or an ARIMA order such as arima:0,1,1; got "hw"\./],
     ["an unknown λ", ["fan", MIXED, "--horizon", "3", "--lambda", "log"], /--lambda must be a number, or auto, guerrero, mle, none; got "log"\./],
     ["a λ out of range", ["total", MIXED, "--horizon", "3", "--lambda", "7"], /--lambda must be between -5 and 5; got 7/],
     ["an unknown mean method", ["fan", MIXED, "--horizon", "3", "--mean", "median"], /--mean must be taylor or exact; got "median"/],
