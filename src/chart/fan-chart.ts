@@ -139,9 +139,9 @@ export function fanChartSvg(input: FanChartInput): string {
   }
   const ox = g.x(g.origin).toFixed(1);
   parts.push(`<line class="origin" x1="${ox}" x2="${ox}" y1="${g.plot.top}" y2="${g.plot.bottom}" stroke="${COLORS.rule}" stroke-width="1"/>`);
-  parts.push(`<path class="history" d="${pathData(g.history)}" fill="none" stroke="${COLORS.history}" stroke-width="1.5" stroke-linejoin="round"/>`);
-  parts.push(`<path class="mean" d="${pathData(g.mean)}" fill="none" stroke="${COLORS.mean}" stroke-width="2" stroke-linejoin="round"/>`);
-  parts.push(`<path class="median" d="${pathData(g.median)}" fill="none" stroke="${COLORS.median}" stroke-width="1" stroke-linejoin="round"/>`);
+  parts.push(`<path class="history" d="${pathData(g.history)}" fill="none" stroke="${COLORS.history}" stroke-width="1.5"/>`);
+  parts.push(`<path class="mean" d="${pathData(g.mean)}" fill="none" stroke="${COLORS.mean}" stroke-width="2"/>`);
+  parts.push(`<path class="median" d="${pathData(g.median)}" fill="none" stroke="${COLORS.median}" stroke-width="1"/>`);
   for (const [a, b] of g.median.slice(1)) {
     parts.push(`<path class="median-marker" d="M${a.toFixed(1)} ${(b - 3).toFixed(1)} l3 3 l-3 3 l-3 -3 z" fill="${COLORS.median}"/>`);
   }
