@@ -1,7 +1,7 @@
 // The pane's view model: raw columns and control values in, everything the pane shows out.
 // Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
 import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
-import { fanChartSvg } from "./chart/fan-chart";
+import { fanChartSvg } from "../chart/fan-chart";
 
 /** The data the pane works on: named columns of raw cells. */
 export interface PaneData {

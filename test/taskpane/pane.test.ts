@@ -62,8 +62,9 @@ async function renders(): Promise<number> {
 async function lastFan(): Promise<Json> {
   return page.evaluate(() => (window as unknown as { fanwisePane: { lastFan: unknown } }).fanwisePane.lastFan);
 }
+/** The points of an SVG path's d ("M x y L x y … [Z]"), in order. */
 function points(attr: string | null): [number, number][] {
-  return (attr ?? "").trim().split(/\s+/).map((p) => p.split(",").map(Number) as [number, number]);
+  return Array.from((attr ?? "").matchAll(/[ML]\s*(-?[\d.]+)[ ,](-?[\d.]+)/g), (m) => [Number(m[1]), Number(m[2])] as [number, number]);
 }
 
 test("the stand-alone page loads on the demo workbook, says so, and makes no request off the machine", async () => {
@@ -94,9 +95,9 @@ test("the fan's bands nest (95 ⊇ 80 ⊇ 50) at every step, in the numbers and 
     expect(iv(50, 1)).toBeLessThanOrEqual(iv(80, 1));
     expect(iv(80, 1)).toBeLessThanOrEqual(iv(95, 1));
   }
-  // On screen (y grows downwards): each band's polygon contains the next one's at every x.
+  // On screen (y grows downwards): each band's outline contains the next one's at every x.
   const polys: Record<string, [number, number][]> = {};
-  for (const l of [50, 80, 95]) polys[l] = points(await page.getAttribute(`#fw-chart polygon.band-${l}`, "points"));
+  for (const l of [50, 80, 95]) polys[l] = points(await page.getAttribute(`#fw-chart path.band-${l}`, "d"));
   const half = (p: [number, number][]) => p.length / 2;
   for (let k = 1; k < half(polys[95]); k++) {
     const upper = (l: number) => polys[l][k][1];
@@ -112,8 +113,8 @@ test("the mean line lies above the median line where λ < 1", async () => {
   const fan = await lastFan();
   expect(fan.lambda).toBeLessThan(1);
   for (const r of fan.rows) expect(r.mean.value).toBeGreaterThan(r.median.value);
-  const mean = points(await page.getAttribute("#fw-chart polyline.mean", "points"));
-  const median = points(await page.getAttribute("#fw-chart polyline.median", "points"));
+  const mean = points(await page.getAttribute("#fw-chart path.mean", "d"));
+  const median = points(await page.getAttribute("#fw-chart path.median", "d"));
   for (let k = 1; k < mean.length; k++) expect(mean[k][1]).toBeLessThanOrEqual(median[k][1]); // screen y: smaller is higher
   expect(await page.textContent("#fw-gap")).toMatch(/mean is [\d.]+% .* above the median/);
 });

@@ -1,9 +1,8 @@
 // fanwise audit: did published intervals cover the actuals as often as their level says?
 import { EngineError, auditCoverage } from "../../engine";
-import { readCsvFile } from "../csv-file";
 import { Command, COMMON } from "../command";
-import { writeOutput } from "../output";
-import { fileArgument } from "../series-input";
+import { emit } from "../output";
+import { readTable } from "../series-input";
 
 const SYNOPSIS = "fanwise audit FILE --actual COL --lower COL --upper COL --level P.";
 
@@ -16,12 +15,16 @@ export const auditCommand: Command = {
     lower: { type: { kind: "text" }, value: "COL", help: "column of interval low ends", example: "lower80", required: SYNOPSIS },
     upper: { type: { kind: "text" }, value: "COL", help: "column of interval high ends", example: "upper80", required: SYNOPSIS },
     level: { ...COMMON.level, help: "the intervals' level in percent", example: "80", default: undefined, required: SYNOPSIS },
+    sheet: COMMON.sheet,
+    range: COMMON.range,
     json: COMMON.json,
+    digits: COMMON.digits,
+    out: COMMON.out,
   },
   examples: ["fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80"],
-  run(p, io) {
+  async run(p, io) {
     const level = p.num("level") as number;
-    const t = readCsvFile(fileArgument(p, "fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80"));
+    const t = await readTable(p, io, "fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80");
     const col = (flag: string) => {
       const name = p.text(flag) as string;
       const j = t.header.indexOf(name);
@@ -29,7 +32,8 @@ export const auditCommand: Command = {
       return t.cells(j);
     };
     const a = auditCoverage(col("actual"), col("lower"), col("upper"), level, 2);
-    writeOutput(io, p.has("json"), {
+    await emit(io, p, {
+      command: "audit",
       json: () => ({
         n: a.n, misses: a.misses, coverage: a.coverage,
         kupiec: { lr: a.kupiec.lr, p: a.kupiec.p }, independence: { lr: a.independence.lr, p: a.independence.p }, conditional: { lr: a.conditional.lr, p: a.conditional.p },
@@ -38,6 +42,9 @@ export const auditCommand: Command = {
       }),
       header: ["n", "misses", "coverage", "nominal", "kupiec_lr", "kupiec_p", "independence_lr", "independence_p", "conditional_lr", "conditional_p", "binomial_tail", "interval_score", "zone", "verdict"],
       rows: () => [[a.n, a.misses, a.coverage, a.nominal, a.kupiec.lr, a.kupiec.p, a.independence.lr, a.independence.p, a.conditional.lr, a.conditional.p, a.binomialTail, a.intervalScore, a.zone, a.verdict]],
+      exact: ["skipped"],
+      formats: { coverage: "0.0%", nominal: "0.0%", kupiec_p: "0.0000", independence_p: "0.0000", conditional_p: "0.0000", binomial_tail: "0.0000" },
+      cautions: t.notes,
     });
     return 0;
   },

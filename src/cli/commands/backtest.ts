@@ -1,8 +1,8 @@
 // fanwise backtest: rolling-origin forecasts over the series' own past — coverage, interval score
 // and the errors of the mean and the median per step ahead.
 import { backtest, isEngineError } from "../../engine";
-import { Command, COMMON } from "../command";
-import { seriesError, writeOutput } from "../output";
+import { Command, COMMON, IO_OPTIONS } from "../command";
+import { emit, exitCode, seriesError } from "../output";
 import { errorMessage, readSeriesFile, zerosOf } from "../series-input";
 
 export const backtestCommand: Command = {
@@ -17,24 +17,25 @@ export const backtestCommand: Command = {
     period: COMMON.period,
     first: { type: { kind: "int", min: 2 }, value: "N", help: "length of the first fitting window", example: "24" },
     zeros: COMMON.zeros,
-    json: COMMON.json,
+    ...IO_OPTIONS,
   },
   examples: ["fanwise backtest sales.csv --horizon 3 --period 12"],
-  run(p, io) {
+  async run(p, io) {
     const H = p.int("horizon") as number;
     const level = p.num("level") ?? 95;
     const period = p.int("period") ?? 1;
     const first = p.int("first");
-    const data = readSeriesFile(p);
+    const data = await readSeriesFile(p, io);
     const results = data.names.map((_, j) => {
       try {
-        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", level, period, first, label: data.names[j], zeros: zerosOf(p) }) };
+        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.value<string>("method") ?? "auto", lambda: p.value<string>("lambda") ?? "auto", level, period, first, label: data.names[j], zeros: zerosOf(p) }) };
       } catch (e) {
         if (isEngineError(e) && /^horizon|must be a percentage|is in percent/.test(e.message)) throw e;
         return { name: data.names[j], error: errorMessage(e) };
       }
     });
-    writeOutput(io, p.has("json"), {
+    await emit(io, p, {
+      command: "backtest",
       json: () => {
         const series: Record<string, unknown> = {};
         for (const r of results) series[r.name] = r.b ? { horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, steps: r.b.rows } : { error: r.error };
@@ -49,8 +50,11 @@ export const backtestCommand: Command = {
         }
         return rows;
       },
+      formats: { coverage: "0.0%" },
+      cautions: [...data.notes, ...results.flatMap((r) => (r.b ? [] : [`${r.name}: ${r.error}`]))],
     });
     for (const r of results) if (!r.b) seriesError(io, r.name, r.error);
-    return 0;
+    const ok = results.filter((r) => r.b).length;
+    return exitCode(ok, results.length - ok);
   },
 };

@@ -1,7 +1,7 @@
 // fanwise lambda: the Box-Cox λ of each series by Guerrero's method or profile likelihood.
 import { EngineError, LambdaMethod, fitLambda, screenSeries } from "../../engine";
-import { Command, COMMON } from "../command";
-import { seriesError, writeOutput } from "../output";
+import { Command, COMMON, IO_OPTIONS } from "../command";
+import { emit, exitCode, seriesError } from "../output";
 import { cleanSeriesAtLines, errorMessage, lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const lambdaCommand: Command = {
@@ -13,14 +13,14 @@ export const lambdaCommand: Command = {
     period: COMMON.period,
     bounds: { type: { kind: "pair" }, value: "LO,HI", help: "search λ between these two numbers", example: "-1,2", default: "-1,2" },
     zeros: COMMON.zeros,
-    json: COMMON.json,
+    ...IO_OPTIONS,
   },
   examples: ["fanwise lambda sales.csv --period 12", "fanwise lambda sales.csv --method mle --json"],
-  run(p, io) {
+  async run(p, io) {
     const period = p.int("period") ?? 1;
     const method = (p.choice("method") ?? "guerrero") as LambdaMethod;
     const [lower, upper] = p.pair("bounds") ?? [undefined, undefined];
-    const data = readSeriesFile(p);
+    const data = await readSeriesFile(p, io);
     const results = data.names.map((_, j) => {
       try {
         const cells = data.column(j);
@@ -32,7 +32,8 @@ export const lambdaCommand: Command = {
         return { ok: false as const, message: errorMessage(e) };
       }
     });
-    writeOutput(io, p.has("json"), {
+    await emit(io, p, {
+      command: "lambda",
       json: () => {
         const series: Record<string, unknown> = {};
         results.forEach((x, j) => {
@@ -46,8 +47,11 @@ export const lambdaCommand: Command = {
       rows: () => results.map((x, j) => x.ok
         ? [data.names[j], x.r.lambda, x.r.method, x.r.interval[0], x.r.interval[1], x.r.readable, x.r.loglik, x.r.onBound ?? "", x.r.note]
         : [data.names[j], "", method, "", "", "", "", "", x.message]),
+      exact: ["readable_lambda"],
+      formats: { lambda: "0.0000", interval_low: "0.0000", interval_high: "0.0000", readable_lambda: "0.00", loglik: "0.000" },
+      cautions: [...data.notes, ...results.flatMap((x, j) => (x.ok ? [] : [`${data.names[j]}: ${x.message}`]))],
     });
     for (const [j, x] of results.entries()) if (!x.ok) seriesError(io, data.names[j], x.message);
-    return 0;
+    return exitCode(results.filter((x) => x.ok).length, results.filter((x) => !x.ok).length);
   },
 };

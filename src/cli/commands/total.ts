@@ -2,23 +2,23 @@
 // means), median and interval from seeded simulated paths; with --across, one more row for the
 // total over all series, simulated jointly.
 import { alignSeries, checkWindowStart, EngineError, fitForecast, Forecaster, isEngineError, totalAcross, totalForecast, AcrossTotal } from "../../engine";
-import { Command, COMMON } from "../command";
-import { seriesError, writeOutput } from "../output";
+import { Command, COMMON, IO_OPTIONS } from "../command";
+import { emit, exitCode, seriesError } from "../output";
 import { atLines, errorMessage, fitAll, readSeriesFile, SeriesFit } from "../series-input";
-import type { CsvSeries } from "../csv";
+import type { SeriesData } from "../table";
 import type { ParsedArgs } from "../options";
 
 interface AcrossRow { name: string; t?: AcrossTotal; error?: string; notes: string[] }
 
 /** The total over every series that could be fitted, aligned on their latest common period. */
-function acrossRow(p: ParsedArgs, data: CsvSeries, fits: SeriesFit[], H: number, from: number, level: number, seed: number, paths: number, mean: "taylor" | "exact"): AcrossRow {
+function acrossRow(p: ParsedArgs, data: SeriesData, fits: SeriesFit[], H: number, from: number, level: number, seed: number, paths: number, mean: "taylor" | "exact"): AcrossRow {
   const ok = fits.map((x, j) => ({ x, j })).filter(({ x }) => x.f);
   const left = fits.filter((x) => !x.f).map((x) => x.name);
   const name = left.length ? `all series except ${left.join(", ")}` : "all series";
   const notes = left.length ? [`Left out (cannot be fitted): ${left.join(", ")}.`] : [];
   try {
     const aligned = alignSeries(ok.map(({ j }) => data.column(j)), ok.map(({ x }) => x.name), 1);
-    if (aligned.note) notes.push(aligned.note.replace(/row (\d+)/, (_m, r) => `line ${data.line(Number(r) - 1)}`));
+    if (aligned.note) notes.push(atLines(aligned.note, data));
     const period = p.int("period") ?? 1;
     const fs: Forecaster[] = ok.map(({ x }, k) => (aligned.cut.includes(x.name)
       ? fitForecast(aligned.columns[k], { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", period, label: x.name })
@@ -47,13 +47,13 @@ export const totalCommand: Command = {
     paths: { type: { kind: "int", min: 100 }, value: "P", help: "number of simulated paths", example: "20000", default: "10000" },
     mean: COMMON.mean,
     zeros: COMMON.zeros,
-    json: COMMON.json,
+    ...IO_OPTIONS,
   },
   details: [
     "--from F --to T adds up steps F..T only (steps count from the period after the last row). --across adds a row for the total over all series, simulated jointly with their one-step errors correlated as in their history (the Pearson correlation of the transformed-scale residuals over the periods every series has), beside the interval if they were independent.",
   ],
   examples: ["fanwise total sales.csv --horizon 12 --period 12", "fanwise total sales.csv --from 8 --to 19 --period 12", "fanwise total sales.csv --horizon 12 --period 12 --across", "fanwise total sales.csv --horizon 12 --level 80 --seed 7 --json"],
-  run(p, io) {
+  async run(p, io) {
     const hFlag = p.int("horizon");
     const toFlag = p.int("to");
     if (hFlag === undefined && toFlag === undefined) throw new EngineError("input", "--horizon is required: how many periods ahead to add up, e.g. --horizon 12 (or --from 8 --to 19).");
@@ -64,7 +64,7 @@ export const totalCommand: Command = {
     const seed = p.int("seed") ?? 1;
     const paths = p.int("paths") ?? 10000;
     const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
-    const data = readSeriesFile(p);
+    const data = await readSeriesFile(p, io);
     const fits = fitAll(p, data);
     const results = fits.map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
@@ -78,7 +78,8 @@ export const totalCommand: Command = {
     });
     const across = p.has("across") ? acrossRow(p, data, fits, H, from, level, seed, paths, mean) : null;
     if (across && !across.t && across.error && /needs at least two series/.test(across.error) && data.names.length < 2) throw new EngineError("input", `--across adds up several series; ${data.names.length === 1 ? `the file has one (${data.names[0]})` : "the file has none"}. Leave --across out for one series.`);
-    writeOutput(io, p.has("json"), {
+    await emit(io, p, {
+      command: "total",
       json: () => {
         const series: Record<string, unknown> = {};
         for (const r of results) {
@@ -111,10 +112,13 @@ export const totalCommand: Command = {
             [`If the series were independent: ${fmtRange(across.t.independent.interval)}.`, across.t.meanNote, ...across.notes].filter(Boolean).join(" ")]
           : [across.name, from, H, "", "", "", "", "", "", level, "", "", [across.error, ...across.notes].join(" ")]] : []),
       ],
+      formats: { lambda: "0.000" },
+      cautions: [...data.notes, ...results.flatMap((r) => ("t" in r && r.t ? [] : [`${r.name}: ${r.error}`])), ...(across && !across.t ? [`${across.name}: ${across.error}`] : [])],
     });
     for (const r of results) if (!("t" in r) || !r.t) seriesError(io, r.name, r.error);
     if (across && !across.t) seriesError(io, across.name, across.error);
-    return 0;
+    const ok = results.filter((r) => "t" in r && r.t).length;
+    return exitCode(ok + (across?.t ? 1 : 0), results.length - ok + (across && !across.t ? 1 : 0));
   },
 };
 

@@ -54,7 +54,7 @@ export function auditCoverage(actual: readonly RawCell[], lower: readonly RawCel
   if (ind.note) parts.push(ind.note);
   else if (ind.p < 0.05) parts.push(`Misses come in clusters (independence p = ${ind.p.toPrecision(2)}): after a miss, another is more likely, so the intervals react too slowly.`);
   else parts.push(`No sign that misses cluster (independence p = ${ind.p.toPrecision(2)}).`);
-  parts.push(`Zone: ${tl.zone} (${misses} misses; P(X ≤ ${misses}) = ${tl.cumulative.toPrecision(4)} at the nominal rate).`);
+  parts.push(`Zone: ${tl.zone} (${misses} ${misses === 1 ? "miss" : "misses"}; P(X ≤ ${misses}) = ${tl.cumulative.toPrecision(4)} at the nominal rate).`);
   return {
     n, skipped: h.skipped, misses, coverage, nominal: c, kupiec: uc, independence: ind, conditional: cc,
     binomialTail: tail, zone: tl.zone, zoneCumulative: tl.cumulative, intervalScore: is, hits: h.hits, verdict: parts.join(" "),
