@@ -8,7 +8,8 @@ import { RawCell, parseLevels, backtestAsync } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
 import { auditView, checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
 import { pastedData } from "./paste";
-import { columnAddress, readSelection, writeFan } from "./excel-io";
+import { addSelectionHandler, columnAddress, readSelection, writeFan } from "./excel-io";
+import { followWhileVisible, SelectionFollower } from "./selection-follow";
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
 
@@ -448,6 +449,7 @@ function wire(): void {
     renderAll();
   });
   $("fw-write-go").addEventListener("click", () => void writeToSheet());
+  $("fw-write-overwrite").addEventListener("click", () => void writeToSheet(true));
   $("fw-audit-go").addEventListener("click", renderAudit);
   $("fw-audit-controls").addEventListener("submit", (e) => e.preventDefault());
   $("fw-backtest-go").addEventListener("click", () => void runBacktest());
@@ -460,8 +462,10 @@ function wire(): void {
   showLambdaTyped();
 }
 
-async function writeToSheet(): Promise<void> {
+async function writeToSheet(overwrite = false): Promise<void> {
   const msg = $("fw-write-msg");
+  const confirm = $<HTMLButtonElement>("fw-write-overwrite");
+  confirm.hidden = true;
   const c = controls();
   if (!state.data.address) {
     msg.textContent = "Select the data range first.";
@@ -469,7 +473,13 @@ async function writeToSheet(): Promise<void> {
   }
   try {
     const formula = fanFormula(columnAddress(state.data.address, c.series), c);
-    const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked);
+    // Checks what is in the way first and asks before overwriting (excel-io.ts, write-plan.ts).
+    const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked, { overwrite });
+    if (!r.written) {
+      msg.textContent = `Nothing written yet: ${r.note}`;
+      confirm.hidden = false;
+      return;
+    }
     msg.textContent = `${r.note} (${r.formulaAt})`;
   } catch (e) {
     msg.textContent = `Could not write to the sheet: ${e instanceof Error ? e.message : String(e)}`;
@@ -495,12 +505,21 @@ async function inExcel(): Promise<void> {
       $("fw-source").textContent = e instanceof Error ? e.message : String(e);
     }
   };
-  await refresh();
-  await Excel.run(async (ctx) => {
-    ctx.workbook.onSelectionChanged.add(async () => later(() => void refresh(), 300));
-    await ctx.sync();
+  // Read the selection and follow it only while the pane is visible (selection-follow.ts says why).
+  follower = new SelectionFollower({
+    addSelectionHandler,
+    refresh,
+    stopWork: () => {
+      if (timer) clearTimeout(timer);
+      state.checkRun++;
+      state.checking = false;
+    },
+    schedule: (f) => later(f, 300),
   });
+  await followWhileVisible(follower, typeof Office.addin === "undefined" ? undefined : Office.addin, document.visibilityState === "hidden");
 }
+
+let follower: SelectionFollower | null = null;
 
 /** For tests and the in-browser benchmark: set data, re-render, and read the last render time. */
 (globalThis as unknown as { fanwisePane: unknown }).fanwisePane = {
@@ -516,6 +535,9 @@ async function inExcel(): Promise<void> {
   get renders(): number { return state.renders; },
   get checking(): boolean { return state.checking; },
   get checkSlices(): number { return state.checkSlices; },
+  get following(): { visible: boolean; listening: boolean; refreshes: number } | null {
+    return follower ? { visible: follower.isVisible, listening: follower.listening, refreshes: follower.refreshes } : null;
+  },
 };
 
 function start(): void {

@@ -46,16 +46,33 @@ const FAKE_OFFICE = `(() => {
   window.loads = [];
   window.valuesRead = [];
   const handlers = [];
-  window.fireSelectionChanged = () => handlers.forEach((h) => h({}));
+  window.fireSelectionChanged = () => handlers.slice().forEach((h) => h({}));
+  window.selectionHandlers = () => handlers.length;
   const ctx = {
     workbook: {
       getSelectedRange: () => rangeOf(window.fakeSelection),
-      onSelectionChanged: { add: (h) => handlers.push(h) },
+      onSelectionChanged: {
+        add: (h) => {
+          handlers.push(h);
+          return { context: ctx, remove: () => { const i = handlers.indexOf(h); if (i >= 0) handlers.splice(i, 1); } };
+        },
+      },
     },
     sync: async () => {},
   };
-  window.Excel = { run: async (cb) => cb(ctx) };
+  // Excel.run(callback) or Excel.run(context, callback), as the API allows.
+  window.Excel = { run: async (a, b) => (typeof a === "function" ? a(ctx) : b(ctx)) };
+  // SharedRuntime 1.1: the pane's visibility changes are announced with window.fireVisibility(mode).
+  const visibilityHandlers = [];
+  window.fireVisibility = (mode) => visibilityHandlers.forEach((h) => h({ visibilityMode: mode }));
   window.Office = {
+    VisibilityMode: { hidden: "Hidden", taskpane: "Taskpane" },
+    addin: {
+      onVisibilityModeChanged: async (h) => {
+        visibilityHandlers.push(h);
+        return async () => { visibilityHandlers.splice(visibilityHandlers.indexOf(h), 1); };
+      },
+    },
     HostType: { Excel: "Excel" },
     context: { requirements: { isSetSupported: (name, v) => name === "ExcelApi" && Number(v) <= 1.7 } },
     onReady(cb) {
@@ -83,10 +100,12 @@ const pane = (page: Page): Promise<Pane> => page.evaluate(() => {
   return { renders: p.renders, checking: p.checking, checkSlices: p.checkSlices };
 });
 
-async function openWith(selection: unknown): Promise<{ page: Page; errors: string[] }> {
+async function openWith(selection: unknown, options: { startHidden?: boolean } = {}): Promise<{ page: Page; errors: string[] }> {
   const page = await env.context.newPage();
   const errors: string[] = [];
   page.on("pageerror", (e) => errors.push(e.message));
+  // A runtime started by a calculation, before anyone opened the pane: the page is hidden.
+  if (options.startHidden) await page.addInitScript(() => Object.defineProperty(document, "visibilityState", { configurable: true, get: () => "hidden" }));
   await page.addInitScript((sel) => {
     (window as unknown as { fakeSelection: unknown }).fakeSelection = sel;
     // Count animation frames painted while the series check is still running: frames can only be
@@ -168,4 +187,75 @@ test("whole columns are cut to the data; an oversized selection is refused with 
   expect(errors).toEqual([]);
   expect(env.offSite).toEqual([]);
   await page.close();
+});
+
+describe("quiet when not looked at: the selection is followed only while the pane is visible (SharedRuntime visibility events)", () => {
+  type W = { valuesRead: string[]; fakeSelection: unknown; fireSelectionChanged: () => void; fireVisibility: (m: string) => void; selectionHandlers: () => number; fanwisePane: { following: { visible: boolean; listening: boolean; refreshes: number } | null } };
+  const following = (page: Page) => page.evaluate(() => (window as unknown as W).fanwisePane.following);
+  const reads = (page: Page) => page.evaluate(() => (window as unknown as W).valuesRead.length);
+  const handlers = (page: Page) => page.evaluate(() => (window as unknown as W).selectionHandlers());
+  const settle = (page: Page) => page.waitForTimeout(700); // longer than the 300 ms debounce
+
+  test("started hidden (by a calculation): no handler and no read until the pane is shown; hiding removes the handler again", async () => {
+    const { page, errors } = await openWith({ address: "Sheet1!A1:C61", grid: [60, 3] }, { startHidden: true });
+    await page.waitForFunction(() => (window as unknown as W).fanwisePane?.following !== null && (window as unknown as W).fanwisePane?.following !== undefined);
+    await settle(page);
+    expect(await following(page)).toEqual({ visible: false, listening: false, refreshes: 0 });
+    expect(await handlers(page)).toBe(0);
+    // selection changes while hidden: nothing is read (no handler is even registered)
+    await page.evaluate(() => (window as unknown as W).fireSelectionChanged());
+    await settle(page);
+    expect(await reads(page)).toBe(0);
+
+    // the user opens the pane: the selection is read once and followed from then on
+    await page.evaluate(() => (window as unknown as W).fireVisibility("Taskpane"));
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!A1:C61");
+    expect(await reads(page)).toBe(1);
+    expect(await handlers(page)).toBe(1);
+    await page.evaluate(() => {
+      const w = window as unknown as W;
+      w.fakeSelection = { address: "Sheet1!B1:B61", grid: [60, 1] };
+      w.fireSelectionChanged();
+    });
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!B1:B61");
+    expect(await reads(page)).toBe(2);
+
+    // the user closes it: the handler goes, and selection changes cost nothing
+    await page.evaluate(() => (window as unknown as W).fireVisibility("Hidden"));
+    await page.waitForFunction(() => !(window as unknown as W).fanwisePane.following?.listening);
+    expect(await handlers(page)).toBe(0);
+    await page.evaluate(() => {
+      const w = window as unknown as W;
+      w.fakeSelection = { address: "Sheet1!C1:C61", grid: [60, 1] };
+      w.fireSelectionChanged();
+    });
+    await settle(page);
+    expect(await reads(page)).toBe(2);
+    expect(await page.textContent("#fw-source")).toBe("Selection Sheet1!B1:B61");
+
+    // shown again: it catches up with the selection made while hidden
+    await page.evaluate(() => (window as unknown as W).fireVisibility("Taskpane"));
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!C1:C61");
+    expect(await handlers(page)).toBe(1);
+    expect(errors).toEqual([]);
+    expect(env.offSite).toEqual([]);
+    await page.close();
+  });
+
+  test("a selection change that arrives just before the pane is hidden is dropped, not computed while hidden", async () => {
+    const { page, errors } = await openWith({ address: "Sheet1!A1:B41", grid: [40, 2] });
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!A1:B41");
+    expect(await following(page)).toMatchObject({ visible: true, listening: true });
+    const before = await reads(page);
+    await page.evaluate(() => {
+      const w = window as unknown as W;
+      w.fakeSelection = { address: "Sheet1!A1:A41", grid: [40, 1] };
+      w.fireSelectionChanged(); // debounced for 300 ms…
+      w.fireVisibility("Hidden"); // …and the pane closes within it
+    });
+    await settle(page);
+    expect(await reads(page)).toBe(before);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
 });
