@@ -30,10 +30,48 @@ export async function readSelection(): Promise<PaneData> {
     if (n > MAX_SELECTION_CELLS) {
       throw new Error(`The selection ${range.address} has ${range.rowCount.toLocaleString("en-GB")} rows × ${range.columnCount} columns (${n.toLocaleString("en-GB")} cells); the pane previews up to ${MAX_SELECTION_CELLS.toLocaleString("en-GB")} cells. Select fewer rows or columns; the FW functions in cells take any size.`);
     }
-    range.load(["values", "valueTypes"]);
-    await ctx.sync();
-    return selectionData(range.address, range.values as unknown[][], range.valueTypes as string[][]);
+    if (n <= READ_PIECE_CELLS) {
+      range.load(["values", "valueTypes"]);
+      await ctx.sync();
+      return selectionData(range.address, range.values as unknown[][], range.valueTypes as string[][]);
+    }
+    // Large selections are read in pieces of whole rows, one request each, so no response passes
+    // Excel on the web's 5 MB limit (see READ_PIECE_CELLS).
+    const values: unknown[][] = [];
+    const types: string[][] = [];
+    for (const [start, rows] of readPieces(range.rowCount, range.columnCount)) {
+      const piece = range.getCell(start, 0).getResizedRange(rows - 1, range.columnCount - 1);
+      piece.load(["values", "valueTypes"]);
+      await ctx.sync();
+      for (const row of piece.values as unknown[][]) values.push(row);
+      for (const row of piece.valueTypes as string[][]) types.push(row);
+    }
+    return selectionData(range.address, values, types);
   });
+}
+
+/**
+ * The most cells the pane reads in one request. Excel on the web limits a request or a response to
+ * 5 MB ("Resource limits and performance optimization for Office Add-ins", Excel add-ins:
+ * https://learn.microsoft.com/office/dev/add-ins/concepts/resource-limits-and-performance-optimization;
+ * "Performance optimization using the Excel JavaScript API": keep payloads below the limits by
+ * chunking, https://learn.microsoft.com/office/dev/add-ins/excel/performance). A number with its
+ * type costs at most about 40 bytes of JSON ("-1.2345678901234567e-308","Double"), so 20,000 cells
+ * are under 1 MB (test/taskpane/excel-io.test.ts measures the worst case), leaving room for text
+ * averaging over 200 characters a cell before a piece could reach 5 MB.
+ */
+export const READ_PIECE_CELLS = 20000;
+
+/**
+ * How a rowCount × columnCount selection is read: [first row, rows] pieces of whole rows, each at
+ * most READ_PIECE_CELLS cells (one row at least; a sheet has at most 16,384 columns).
+ * @example readPieces(50001, 4) // [[0, 5000], [5000, 5000], …, [50000, 1]] (11 pieces)
+ */
+export function readPieces(rowCount: number, columnCount: number): [number, number][] {
+  const per = Math.max(1, Math.floor(READ_PIECE_CELLS / Math.max(1, columnCount)));
+  const out: [number, number][] = [];
+  for (let start = 0; start < rowCount; start += per) out.push([start, Math.min(per, rowCount - start)]);
+  return out;
 }
 
 /** Turns a range's values and value types into the pane's columns (pure, for tests). */

@@ -1,7 +1,7 @@
 // excel-io.ts against office-addin-mock: reading a selection with blanks, text and a header row,
 // and writing the FW.FAN formula and the native chart (with the ExcelApi 1.7 check).
 import { OfficeMockObject } from "office-addin-mock";
-import { columnAddress, readSelection, selectionData, writeFan } from "../../src/taskpane/excel-io";
+import { columnAddress, READ_PIECE_CELLS, readPieces, readSelection, selectionData, writeFan } from "../../src/taskpane/excel-io";
 import { blockAddress, parseCell } from "../../src/taskpane/write-plan";
 import { selectionProblem } from "../../src/taskpane/view-model";
 
@@ -229,5 +229,52 @@ describe("selectionProblem says what a selection with nothing to forecast needs 
     expect(selectionProblem(selectionData("C3", [[42]], [["Double"]]))).toMatch(/^The selection is one cell \(42\); a forecast needs a series of at least 4 values/);
     expect(selectionProblem(selectionData("A1:B2", [["a", "b"], ["c", ""]], [["String", "String"], ["String", "Empty"]]))).toMatch(/holds no numbers, only text or empty cells/);
     expect(selectionProblem(selectionData("A1:A3", [["Sales"], [1], [2]], [["String"], ["Double"], ["Double"]]))).toBeNull();
+  });
+});
+
+describe("large selections are read in pieces under Excel on the web's 5 MB limit per response (platform documentation)", () => {
+  const LIMIT = 5 * 1024 * 1024;
+  test("a piece of the widest numbers with their types is far below 5 MB (under 1 MB)", () => {
+    // The longest JSON a number can take, and its value type, for every cell of one piece.
+    const cols = 50;
+    const rows = Math.floor(READ_PIECE_CELLS / cols);
+    const piece = { values: Array.from({ length: rows }, () => new Array(cols).fill(-1.2345678901234567e-308)), valueTypes: Array.from({ length: rows }, () => new Array(cols).fill("Double")) };
+    const bytes = Buffer.byteLength(JSON.stringify(piece), "utf8");
+    expect(bytes).toBeLessThan(1024 * 1024);
+    // so text can average this many characters a cell before a piece reaches the limit
+    expect(Math.floor((LIMIT - bytes) / READ_PIECE_CELLS)).toBeGreaterThan(200);
+  });
+  test("pieces cover every row once, each at most READ_PIECE_CELLS cells, at least one row", () => {
+    for (const [r, c] of [[200000, 1], [4000, 50], [50001, 4], [13, 16384], [1, 1]]) {
+      const pieces = readPieces(r, c);
+      expect(pieces.reduce((n, [, k]) => n + k, 0)).toBe(r);
+      pieces.forEach(([start, k], i) => {
+        expect(start).toBe(i === 0 ? 0 : pieces[i - 1][0] + pieces[i - 1][1]);
+        expect(k * c <= READ_PIECE_CELLS || k === 1).toBe(true);
+      });
+    }
+    expect(readPieces(200000, 1)).toHaveLength(10);
+  });
+  test("readSelection reads 60,000 × 3 cells in pieces of whole rows and puts them back together in order", async () => {
+    const rows = 60000;
+    const values = [["North", "South", "East"], ...Array.from({ length: rows }, (_, i) => [i, 2 * i, 3 * i])];
+    const types = values.map((r, i) => r.map(() => (i === 0 ? "String" : "Double")));
+    const requested: [number, number][] = [];
+    const pieceOf = (start: number, n: number): Any => ({ values: values.slice(start, start + n), valueTypes: types.slice(start, start + n), load() { return this; } });
+    const range: Any = {
+      address: "Sheet1!A1:C60001", rowCount: rows + 1, columnCount: 3,
+      load() { return this; },
+      get values() { throw new Error("the whole range must not be read in one request"); },
+      getCell: (i: number) => ({ getResizedRange: (dr: number) => { requested.push([i, dr + 1]); return pieceOf(i, dr + 1); } }),
+    };
+    g.Office = { context: { requirements: { isSetSupported: () => true } } };
+    g.Excel = { run: async (cb: (c: unknown) => Promise<unknown>) => cb({ workbook: { getSelectedRange: () => range }, sync: async () => undefined }) };
+    const sel = await readSelection();
+    expect(requested.length).toBe(Math.ceil((rows + 1) / Math.floor(READ_PIECE_CELLS / 3)));
+    for (const [, n] of requested) expect(n * 3).toBeLessThanOrEqual(READ_PIECE_CELLS);
+    expect(sel.names).toEqual(["North", "South", "East"]);
+    expect(sel.columns[2].length).toBe(rows);
+    expect(sel.columns[2][rows - 1]).toBe(3 * (rows - 1));
+    expect(sel.columns[0].slice(0, 3)).toEqual([0, 1, 2]);
   });
 });

@@ -41,6 +41,10 @@ const FAKE_OFFICE = `(() => {
     };
     Object.defineProperty(r, "values", { get() { window.valuesRead.push(spec.address); return g.values; } });
     Object.defineProperty(r, "valueTypes", { get() { return g.types; } });
+    // A piece of whole rows (large selections are read in pieces): getCell(i, 0).getResizedRange(rows - 1, cols - 1).
+    r.getCell = (i) => ({
+      getResizedRange: (dr, dc) => rangeOf({ address: spec.address + "#rows" + i + "-" + (i + dr), values: g.values.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)), types: g.types.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)) }),
+    });
     return r;
   };
   window.loads = [];
