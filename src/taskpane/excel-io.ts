@@ -2,6 +2,7 @@
 // where the API allows, a native fan chart next to it.
 import { isHeaderRow, RawCell } from "../engine";
 import type { PaneData } from "./view-model";
+import { formatWhole } from "./locale";
 import { describeInTheWay, fanWritePlan, InTheWay, occupiedCells } from "./write-plan";
 
 /** The most cells the pane reads from a selection (a whole-column selection is first cut to the data). */
@@ -28,7 +29,7 @@ export async function readSelection(): Promise<PaneData> {
     }
     const n = range.rowCount * range.columnCount;
     if (n > MAX_SELECTION_CELLS) {
-      throw new Error(`The selection ${range.address} has ${range.rowCount.toLocaleString("en-GB")} rows × ${range.columnCount} columns (${n.toLocaleString("en-GB")} cells); the pane previews up to ${MAX_SELECTION_CELLS.toLocaleString("en-GB")} cells. Select fewer rows or columns; the FW functions in cells take any size.`);
+      throw new Error(`The selection ${range.address} has ${formatWhole(range.rowCount)} rows × ${range.columnCount} columns (${formatWhole(n)} cells); the pane previews up to ${formatWhole(MAX_SELECTION_CELLS)} cells. Select fewer rows or columns; the FW functions in cells take any size.`);
     }
     if (n <= READ_PIECE_CELLS) {
       range.load(["values", "valueTypes"]);

@@ -10,6 +10,8 @@ import { auditView, checkRow, CheckRow, fanFormula, FanControls, fanView, FanVie
 import { pastedData } from "./paste";
 import { addSelectionHandler, columnAddress, readSelection, writeFan } from "./excel-io";
 import { followWhileVisible, SelectionFollower } from "./selection-follow";
+import { formatWhole } from "./locale";
+import { applyOfficeTheme } from "./theme";
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
 
@@ -122,7 +124,7 @@ function renderSeriesSelect(): void {
 }
 
 function fmtCell(v: number | null): string {
-  return v === null ? "n/a" : Math.abs(v) >= 1000 ? Math.round(v).toLocaleString("en-GB") : String(Number(v.toPrecision(4)));
+  return v === null ? "n/a" : Math.abs(v) >= 1000 ? formatWhole(v) : String(Number(v.toPrecision(4)));
 }
 
 function renderFan(): void {
@@ -495,9 +497,11 @@ function standalone(): void {
 
 async function inExcel(): Promise<void> {
   state.inExcel = true;
+  applyOfficeTheme(document.documentElement, Office.context.officeTheme);
   $("fw-write").hidden = false;
   const refresh = async (): Promise<void> => {
     try {
+      applyOfficeTheme(document.documentElement, Office.context.officeTheme); // the user may have changed it meanwhile
       state.data = await readSelection();
       if (state.series >= state.data.columns.length) state.series = 0;
       renderAll();

@@ -3,6 +3,7 @@
 import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
 import { fanChartSvg } from "./chart/fan-chart";
 import { FW_NAMESPACE } from "./namespace";
+import { formatWhole } from "./locale";
 
 /** The data the pane works on: named columns of raw cells. */
 export interface PaneData {
@@ -36,7 +37,7 @@ export interface CheckRow {
 
 function fmt(x: number | null): string {
   if (x === null || !Number.isFinite(x)) return "–";
-  return Math.abs(x) >= 1000 ? Math.round(x).toLocaleString("en-GB") : String(Number(x.toPrecision(4)));
+  return Math.abs(x) >= 1000 ? formatWhole(x) : String(Number(x.toPrecision(4)));
 }
 
 /**
