@@ -10,6 +10,7 @@
 // advises one manifest per environment with its own URLs and a name users can tell apart (same page).
 "use strict";
 const { URL } = require("url");
+const { addKeywordEnums } = require("./enums");
 
 /** The development server's origin (scripts/start.js, webpack devServer). */
 const DEV_ORIGIN = "https://localhost:3000";
@@ -93,7 +94,8 @@ function productionManifest(devXml, originInput, version) {
  * function receives an error value in an input range and can refuse it with its position
  * ("Manually create JSON metadata for custom functions", allowErrorForDataTypeAny:
  * https://learn.microsoft.com/office/dev/add-ins/excel/custom-functions-json#allowerrorfordatatypeany;
- * the JSDoc generator cannot emit it, hence this step). Throws if a helpUrl is elsewhere.
+ * the JSDoc generator cannot emit it, hence this step), and the keyword arguments' custom enums
+ * (scripts/enums.js). Throws if a helpUrl is elsewhere.
  */
 function deployFunctionsJson(jsonText, originInput) {
   const meta = JSON.parse(jsonText);
@@ -103,6 +105,7 @@ function deployFunctionsJson(jsonText, originInput) {
     if (!f.helpUrl.startsWith(`${DEV_ORIGIN}/`)) throw new Error(`FW.${f.id}: @helpurl ${f.helpUrl} must start with ${DEV_ORIGIN}/ in the source (the build moves it to the deployed origin)`);
     f.helpUrl = `${base}/${f.helpUrl.slice(DEV_ORIGIN.length + 1)}`;
   }
+  addKeywordEnums(meta); // AutoComplete lists for the keyword arguments (scripts/enums.js)
   return JSON.stringify({ allowErrorForDataTypeAny: true, ...meta }, null, 2);
 }
 

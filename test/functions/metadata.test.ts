@@ -90,3 +90,31 @@ describe("the build step that moves help links to the deployed origin (scripts/o
     expect(() => deployFunctionsJson(src.replace("https://localhost:3000", "http://elsewhere.example"), "https://addins.quillmere.example")).toThrow(/FW\.FAN: @helpurl http:\/\/elsewhere\.example.* must start with https:\/\/localhost:3000\//);
   });
 });
+
+describe("keyword arguments carry custom enums, so Excel's AutoComplete lists them (platform: 'Create custom enums for your custom functions')", () => {
+  // eslint-disable-next-line @typescript-eslint/no-require-imports
+  const { ENUMS } = require("../../scripts/enums.js");
+  interface Enum { id: string; type: string; values: { name: string; stringValue: string; tooltip: string }[] }
+  const meta = (): { enums?: Enum[]; functions: (Fn & { parameters: (Param & { customEnumId?: string })[] })[] } => JSON.parse(fs.readFileSync(file, "utf8"));
+  test("the forecasting methods' list is exactly the engine's METHODS", () => {
+    // eslint-disable-next-line @typescript-eslint/no-require-imports
+    const { METHODS } = require("../../src/engine");
+    expect(ENUMS.FWMETHOD.map((v: [string, string]) => v[0]).sort()).toEqual([...METHODS].sort());
+  });
+  test("every forecasting function's method, FITLAMBDA's and the back-transforms' methods point at their enums; λ at none", () => {
+    const m = meta();
+    const byId = new Map(m.functions.map((f) => [f.id, f]));
+    const enumOf = (id: string, p: string): string | undefined => byId.get(id)?.parameters.find((x) => x.name === p)?.customEnumId;
+    for (const id of ["FAN", "QUANTILES", "TOTAL", "MODELINFO", "BACKTEST"]) expect([id, enumOf(id, "method")]).toEqual([id, "FWMETHOD"]);
+    expect(enumOf("FITLAMBDA", "method")).toBe("FWLAMBDAMETHOD");
+    expect(enumOf("BTMEAN", "method")).toBe("FWMEANMETHOD");
+    for (const f of m.functions) for (const p of f.parameters) if (p.name === "lambda") expect([f.id, p.customEnumId]).toEqual([f.id, undefined]);
+    // every referenced enum is defined, as strings with a tooltip
+    const defined = new Map((m.enums ?? []).map((e) => [e.id, e]));
+    for (const f of m.functions) for (const p of f.parameters) if (p.customEnumId) {
+      const e = defined.get(p.customEnumId);
+      expect([f.id, p.name, e?.type]).toEqual([f.id, p.name, "string"]);
+      for (const v of e?.values ?? []) expect(v.tooltip.length).toBeGreaterThan(3);
+    }
+  });
+});
