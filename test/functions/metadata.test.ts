@@ -5,7 +5,7 @@ import * as path from "path";
 
 const file = path.join(__dirname, "..", "..", "dist", "functions.json");
 
-interface Param { name: string; type: string; dimensionality?: string; optional?: boolean }
+interface Param { name: string; type: string; dimensionality?: string; optional?: boolean; customEnumId?: string }
 interface Fn { id: string; name: string; description: string; helpUrl?: string; parameters: Param[]; result: { type?: string; dimensionality?: string } }
 
 const expected: Record<string, [string, boolean][]> = {

@@ -61,11 +61,33 @@ const FAKE_OFFICE = `(() => {
           return { context: ctx, remove: () => { const i = handlers.indexOf(h); if (i >= 0) handlers.splice(i, 1); } };
         },
       },
+      // The active sheet for "Write to sheet": window.sheetCells maps A1 addresses to what they hold;
+      // writes are recorded in window.sheetWrites, batches in window.syncs.
+      worksheets: {
+        getActiveWorksheet: () => ({
+          getRange: (address) => {
+            const r = {
+              load() { return r; },
+              get formulas() {
+                const [a, b] = address.split(":");
+                const p = (x) => { const m = /^([A-Z]+)(\\d+)$/.exec(x); return [Number(m[2]) - 1, m[1].split("").reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0) - 1]; };
+                const [r0, c0] = p(a); const [r1, c1] = p(b || a);
+                const name = (i, j) => { let s = ""; for (let k = j + 1; k > 0; k = Math.floor((k - 1) / 26)) s = String.fromCharCode(65 + ((k - 1) % 26)) + s; return s + (i + 1); };
+                return Array.from({ length: r1 - r0 + 1 }, (_, i) => Array.from({ length: c1 - c0 + 1 }, (_, j) => (window.sheetCells || {})[name(r0 + i, c0 + j)] ?? ""));
+              },
+              set formulas(v) { window.sheetWrites.push(["formulas", address, v]); },
+              clear(what) { window.sheetWrites.push(["clear", address, what]); },
+            };
+            return r;
+          },
+        }),
+      },
     },
-    sync: async () => {},
+    sync: async () => { window.syncs = (window.syncs || 0) + 1; },
   };
+  window.sheetWrites = [];
   // Excel.run(callback) or Excel.run(context, callback), as the API allows.
-  window.Excel = { run: async (a, b) => (typeof a === "function" ? a(ctx) : b(ctx)) };
+  window.Excel = { run: async (a, b) => (typeof a === "function" ? a(ctx) : b(ctx)), ClearApplyTo: { contents: "Contents" } };
   // SharedRuntime 1.1: the pane's visibility changes are announced with window.fireVisibility(mode).
   const visibilityHandlers = [];
   window.fireVisibility = (mode) => visibilityHandlers.forEach((h) => h({ visibilityMode: mode }));
@@ -262,4 +284,28 @@ describe("quiet when not looked at: the selection is followed only while the pan
     expect(errors).toEqual([]);
     await page.close();
   });
+});
+
+test("Write to sheet with a value in the fan's way: says what and where, writes nothing; Overwrite then writes", async () => {
+  const { page, errors } = await openWith({ address: "Sheet1!A1:A61", grid: [60, 1] });
+  await page.evaluate(() => { (window as unknown as { sheetCells: Record<string, unknown> }).sheetCells = { K5: 1200 }; });
+  await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!A1:A61");
+  await page.fill("#fw-target", "J2");
+  await page.click("#fw-write-go");
+  await page.waitForFunction(() => /Nothing written yet/.test(document.getElementById("fw-write-msg")?.textContent ?? ""));
+  expect(await page.textContent("#fw-write-msg")).toBe('Nothing written yet: K5 (in the fan\'s spill area) holds 1200. Writing would overwrite it: choose another cell, or press "Overwrite" to replace it.');
+  type Writes = { sheetWrites: unknown[] };
+  expect(await page.evaluate(() => (window as unknown as Writes).sheetWrites)).toEqual([]);
+  expect(await page.isVisible("#fw-write-overwrite")).toBe(true);
+  await page.click("#fw-write-overwrite");
+  await page.waitForFunction(() => /Formula written/.test(document.getElementById("fw-write-msg")?.textContent ?? ""));
+  const writes = await page.evaluate(() => (window as unknown as Writes).sheetWrites) as [string, string, unknown][];
+  expect(writes[0]).toEqual(["clear", "J2:P13", "Contents"]);
+  expect(writes[1][0]).toBe("formulas");
+  expect(writes[1][1]).toBe("J2");
+  expect(String((writes[1][2] as string[][])[0][0])).toMatch(/^=FW\.FAN\(Sheet1!A1:A61,12,/);
+  expect(await page.isVisible("#fw-write-overwrite")).toBe(false);
+  expect(errors).toEqual([]);
+  expect(env.offSite).toEqual([]);
+  await page.close();
 });
