@@ -300,7 +300,7 @@ test("Write to sheet with a value in the fan's way: says what and where, writes 
   await page.click("#fw-write-overwrite");
   await page.waitForFunction(() => /Formula written/.test(document.getElementById("fw-write-msg")?.textContent ?? ""));
   const writes = await page.evaluate(() => (window as unknown as Writes).sheetWrites) as [string, string, unknown][];
-  expect(writes[0]).toEqual(["clear", "J2:P13", "Contents"]);
+  expect(writes[0]).toEqual(["clear", "J2:R13", "Contents"]); // the pane's default levels 50, 80, 95: 3 + 2×3 = 9 columns
   expect(writes[1][0]).toBe("formulas");
   expect(writes[1][1]).toBe("J2");
   expect(String((writes[1][2] as string[][])[0][0])).toMatch(/^=FW\.FAN\(Sheet1!A1:A61,12,/);
