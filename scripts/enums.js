@@ -21,6 +21,7 @@ const ENUMS = {
     ["seasonal-ses", "Smoothing with a season, no trend"],
     ["holt-winters", "Trend and season"],
     ["damped-holt-winters", "Damped trend and season"],
+    ["arima", "Automatic seasonal ARIMA (or type an order such as arima:0,1,1)"],
   ],
   FWLAMBDAMETHOD: [
     ["guerrero", "Guerrero's method (default)"],
