@@ -29,7 +29,9 @@ function makeError(code: "#VALUE!" | "#NUM!" | "#N/A", message: string): CustomF
 
 /** A `domain` problem that is an overflow (a number too large to represent), not a missing value. */
 function isOverflow(message: string): boolean {
-  return /too large to represent|overflows/.test(message);
+  // "…is too large to represent…", "Box-Cox with λ = 3 overflows on Sales's values…"; not "unbounded
+  // … (or overflows)", which is a pole: no value exists, so #N/A with the reason.
+  return /too large to represent|\boverflows on\b/.test(message);
 }
 
 /**

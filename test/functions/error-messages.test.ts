@@ -64,6 +64,8 @@ describe("toExcelError's rule (src/functions/excel-errors.ts)", () => {
     expect(isCellError(toExcelError(new EngineError("domain", "Transformed value -3 is at or below -1/λ = -2: no positive original value (the floor at 0).")), "#N/A", /floor/)).toBe(true);
     expect(isCellError(toExcelError(new EngineError("domain", "Box-Cox of 1e308 with λ = 2 is too large to represent; use a smaller λ.")), "#NUM!")).toBe(true);
     expect(isCellError(toExcelError(new EngineError("domain", "Box-Cox with λ = 3 overflows on Sales's values; use a smaller λ (e.g. 0).")), "#NUM!")).toBe(true);
+    // a pole that "lies at or past the pole … (or overflows)" is a value that does not exist: #N/A with the reason
+    expect(isCellError(toExcelError(new EngineError("domain", "The 1 quantile is unbounded: with λ = -1 it lies at or past the pole of the inverse transform (or overflows). Try a larger λ (e.g. 0) or a lower probability.")), "#N/A", /unbounded/)).toBe(true);
   });
   test("an unexpected exception is still #VALUE! with a message (never a bare #VALUE! from an escaped exception)", () => {
     const e = toExcelError(new TypeError("x is undefined"));
