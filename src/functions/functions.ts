@@ -11,6 +11,7 @@ import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSerie
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
 import { elementwise, finiteTable } from "./shape";
+import { cancelSignal, CancelSignal, NEVER_CANCELLED, withCancel } from "./cancel";
 
 function guard<T>(f: () => T): T {
   try {
@@ -263,11 +264,12 @@ function forecastArgs(method: unknown, lambda: unknown, period: unknown): Series
   return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1) };
 }
 
-async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T): Promise<{ names: string[]; results: T[] }> {
+async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T, cancel: CancelSignal = NEVER_CANCELLED): Promise<{ names: string[]; results: T[] }> {
   const s = readSeries(values);
   const results: T[] = [];
+  const pause = withCancel(yieldToHost, cancel);
   for (let j = 0; j < s.series.length; j++) {
-    if (j > 0) await yieldToHost();
+    if (j > 0) await pause();
     try {
       const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
       results.push(f(fc, s.names[j]));
@@ -283,6 +285,7 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
  * Forecast fan for each series, back on the original scale: step, mean (for budgets), median, and the low and high ends of each interval.
  * @customfunction FAN
  * @helpurl https://localhost:3000/README.html#fwfan
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), oldest first, positive numbers.
  * @param {number} horizon How many periods ahead to forecast (a whole number, e.g. 12).
  * @param {string} [method] "auto" (default: lowest AICc among the smoothing models), "naive", "drift", "seasonal-naive", "mean", "ses", "holt", "damped", "seasonal-ses", "holt-winters", "damped-holt-winters", "arima" (automatic seasonal ARIMA) or an ARIMA order such as "arima:0,1,1" or "arima:0,1,1/0,1,1".
@@ -293,6 +296,8 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
  * @returns One row per step: step, then per series mean, median, low and high for each level.
  */
 export async function FAN(values: any[][], horizon: number, method?: string, lambda?: any, levels?: any[][], period?: number, header?: boolean): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(FAN, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period);
     const lv = parseLevels(readLevels(levels));
@@ -302,7 +307,7 @@ export async function FAN(values: any[][], horizon: number, method?: string, lam
     const { names, results } = await eachSeries(values, args, (fc) => {
       const t = fanTable(fc, h, { levels: lv });
       return t.rows.map((r) => [cell(r.mean), cell(r.median), ...lv.flatMap((l) => [cell(r.intervals[String(l)][0]), cell(r.intervals[String(l)][1])])]);
-    }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)));
+    }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)), cancel);
     const H = results[0].length;
     const out: any[][] = [];
     if (withHeader) {
@@ -321,6 +326,7 @@ function checkHorizonSafe(h: number): number {
  * Forecast quantiles on the original scale: one row per step, one column per probability (per series).
  * @customfunction QUANTILES
  * @helpurl https://localhost:3000/README.html#fwquantiles
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {number} horizon How many periods ahead (a whole number).
  * @param {any[][]} probs Probabilities strictly between 0 and 1, e.g. 0.1, 0.5, 0.9 (a cell or a row).
@@ -330,12 +336,14 @@ function checkHorizonSafe(h: number): number {
  * @returns horizon rows × (probabilities × series) columns.
  */
 export async function QUANTILES(values: any[][], horizon: number, probs: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(QUANTILES, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period);
     const ps = readProbs(probs);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const { results } = await eachSeries(values, args, (fc) => quantileTable(fc, h, ps).map((row) => row.map(cell)),
-      (err) => Array.from({ length: Math.min(checkHorizonSafe(h), 1000) }, () => new Array(ps.length).fill(err)));
+      (err) => Array.from({ length: Math.min(checkHorizonSafe(h), 1000) }, () => new Array(ps.length).fill(err)), cancel);
     const H = results[0].length;
     return finiteTable(Array.from({ length: H }, (_, i) => results.flatMap((r) => r[i])));
   });
@@ -345,6 +353,7 @@ export async function QUANTILES(values: any[][], horizon: number, probs: any[][]
  * Forecast of the total over the next periods (e.g. a year's budget from monthly history): mean, median, and the interval's low and high ends.
  * @customfunction TOTAL
  * @helpurl https://localhost:3000/README.html#fwtotal
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {number} horizon Number of periods to add up (e.g. 12 for a year of months).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
@@ -356,6 +365,8 @@ export async function QUANTILES(values: any[][], horizon: number, probs: any[][]
  * @returns One row per series: mean, median, low, high.
  */
 export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(TOTAL, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period);
     const lv = optionalNumber(level, "level", 95);
@@ -366,7 +377,7 @@ export async function TOTAL(values: any[][], horizon: number, method?: string, l
     const { results } = await eachSeries(values, args, (fc) => {
       const t = totalForecast(fc, h, { level: lv, seed: sd, from: start });
       return [cell(t.mean), t.median, t.interval[0], t.interval[1] ?? naCell("The total's upper end is unbounded at this λ.")];
-    }, (err) => [err, err, err, err]);
+    }, (err) => [err, err, err, err], cancel);
     return finiteTable(results);
   });
 }
@@ -375,6 +386,7 @@ export async function TOTAL(values: any[][], horizon: number, method?: string, l
  * Describes the fitted model: method, λ, parameters, σ, log-likelihood, AICc and n (a label column, then one column per series).
  * @customfunction MODELINFO
  * @helpurl https://localhost:3000/README.html#fwmodelinfo
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
  * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
@@ -382,9 +394,11 @@ export async function TOTAL(values: any[][], horizon: number, method?: string, l
  * @returns Two columns (label, value) for one series; one more value column per extra series.
  */
 export async function MODELINFO(values: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(MODELINFO, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period);
-    const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]]);
+    const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]], cancel);
     // Union of labels in first-seen order; a series without a label gets a blank.
     const labels: string[] = [];
     for (const r of results) for (const [k] of r) if (!labels.includes(k)) labels.push(k);
@@ -468,6 +482,7 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
  * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, and the mean error of the mean and of the median.
  * @customfunction BACKTEST
  * @helpurl https://localhost:3000/README.html#fwbacktest
+ * @cancelable
  * @param {any[][]} values The history, oldest first, one column (a header cell is allowed).
  * @param {number} horizon Steps ahead to check (a whole number).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
@@ -478,6 +493,8 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
  * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median.
  */
 export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(BACKTEST, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period);
     const lv = optionalNumber(level, "level", 95);
@@ -486,7 +503,7 @@ export async function BACKTEST(values: any[][], horizon: number, method?: string
     const f = first === null || first === undefined ? undefined : optionalInteger(first, "first", 2, 2);
     const s = readSeries(values);
     if (s.series.length !== 1) throw new EngineError("input", `FW.BACKTEST checks one series at a time; the range has ${s.series.length} columns.`);
-    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, yieldToHost);
+    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, withCancel(yieldToHost, cancel));
     return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? ""]));
   });
 }

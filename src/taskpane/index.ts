@@ -10,7 +10,10 @@ import { auditView, checkRow, CheckRow, fanFormula, FanControls, fanView, FanVie
 import { pastedData } from "./paste";
 import { publishedView } from "./views/published";
 import { acrossRowView, totalOverSentence } from "./views/totals";
-import { columnAddress, readSelection, writeFan } from "./excel-io";
+import { addSelectionHandler, columnAddress, readSelection, writeFan } from "./excel-io";
+import { followWhileVisible, SelectionFollower } from "./selection-follow";
+import { formatWhole } from "./locale";
+import { applyOfficeTheme } from "./theme";
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
 
@@ -150,7 +153,7 @@ function renderSeriesSelect(): void {
 }
 
 function fmtCell(v: number | null): string {
-  return v === null ? "n/a" : Math.abs(v) >= 1000 ? Math.round(v).toLocaleString("en-GB") : String(Number(v.toPrecision(4)));
+  return v === null ? "n/a" : Math.abs(v) >= 1000 ? formatWhole(v) : String(Number(v.toPrecision(4)));
 }
 
 function renderFan(): void {
@@ -541,6 +544,7 @@ function wire(): void {
     renderAll();
   });
   $("fw-write-go").addEventListener("click", () => void writeToSheet());
+  $("fw-write-overwrite").addEventListener("click", () => void writeToSheet(true));
   $("fw-audit-go").addEventListener("click", renderAudit);
   $("fw-pub-go").addEventListener("click", renderPublished);
   $("fw-pub-controls").addEventListener("submit", (e) => e.preventDefault());
@@ -555,8 +559,10 @@ function wire(): void {
   showLambdaTyped();
 }
 
-async function writeToSheet(): Promise<void> {
+async function writeToSheet(overwrite = false): Promise<void> {
   const msg = $("fw-write-msg");
+  const confirm = $<HTMLButtonElement>("fw-write-overwrite");
+  confirm.hidden = true;
   const c = controls();
   if (!state.data.address) {
     msg.textContent = "Select the data range first.";
@@ -564,7 +570,13 @@ async function writeToSheet(): Promise<void> {
   }
   try {
     const formula = fanFormula(columnAddress(state.data.address, c.series), c);
-    const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked);
+    // Checks what is in the way first and asks before overwriting (excel-io.ts, write-plan.ts).
+    const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked, { overwrite });
+    if (!r.written) {
+      msg.textContent = `Nothing written yet: ${r.note}`;
+      confirm.hidden = false;
+      return;
+    }
     msg.textContent = `${r.note} (${r.formulaAt})`;
   } catch (e) {
     msg.textContent = `Could not write to the sheet: ${e instanceof Error ? e.message : String(e)}`;
@@ -580,9 +592,11 @@ function standalone(): void {
 
 async function inExcel(): Promise<void> {
   state.inExcel = true;
+  applyOfficeTheme(document.documentElement, Office.context.officeTheme);
   $("fw-write").hidden = false;
   const refresh = async (): Promise<void> => {
     try {
+      applyOfficeTheme(document.documentElement, Office.context.officeTheme); // the user may have changed it meanwhile
       state.data = await readSelection();
       if (state.series >= state.data.columns.length) state.series = 0;
       renderAll();
@@ -590,12 +604,21 @@ async function inExcel(): Promise<void> {
       $("fw-source").textContent = e instanceof Error ? e.message : String(e);
     }
   };
-  await refresh();
-  await Excel.run(async (ctx) => {
-    ctx.workbook.onSelectionChanged.add(async () => later(() => void refresh(), 300));
-    await ctx.sync();
+  // Read the selection and follow it only while the pane is visible (selection-follow.ts says why).
+  follower = new SelectionFollower({
+    addSelectionHandler,
+    refresh,
+    stopWork: () => {
+      if (timer) clearTimeout(timer);
+      state.checkRun++;
+      state.checking = false;
+    },
+    schedule: (f) => later(f, 300),
   });
+  await followWhileVisible(follower, typeof Office.addin === "undefined" ? undefined : Office.addin, document.visibilityState === "hidden");
 }
+
+let follower: SelectionFollower | null = null;
 
 /** For tests and the in-browser benchmark: set data, re-render, and read the last render time. */
 (globalThis as unknown as { fanwisePane: unknown }).fanwisePane = {
@@ -611,6 +634,9 @@ async function inExcel(): Promise<void> {
   get renders(): number { return state.renders; },
   get checking(): boolean { return state.checking; },
   get checkSlices(): number { return state.checkSlices; },
+  get following(): { visible: boolean; listening: boolean; refreshes: number } | null {
+    return follower ? { visible: follower.isVisible, listening: follower.listening, refreshes: follower.refreshes } : null;
+  },
 };
 
 function start(): void {

@@ -2,6 +2,8 @@
 // Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
 import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
 import { fanChartSvg } from "../chart/fan-chart";
+import { FW_NAMESPACE } from "./namespace";
+import { formatWhole } from "./locale";
 
 /** The data the pane works on: named columns of raw cells. */
 export interface PaneData {
@@ -35,7 +37,7 @@ export interface CheckRow {
 
 function fmt(x: number | null): string {
   if (x === null || !Number.isFinite(x)) return "–";
-  return Math.abs(x) >= 1000 ? Math.round(x).toLocaleString("en-GB") : String(Number(x.toPrecision(4)));
+  return Math.abs(x) >= 1000 ? formatWhole(x) : String(Number(x.toPrecision(4)));
 }
 
 /**
@@ -208,14 +210,15 @@ function quote(s: string): string {
 
 /**
  * The `=FW.FAN(...)` formula matching the controls, for a series at `address` (so the sheet
- * recalculates with the data). With zeros read as missing, the range is passed with its zeros
- * blanked (`IF(range=0,"",range)`): in cells a blank inside a series is a missing observation.
+ * recalculates with the data), in this build's namespace (FW deployed, FWDEV in development). With
+ * zeros read as missing, the range is passed with its zeros blanked (`IF(range=0,"",range)`): in
+ * cells a blank inside a series is a missing observation.
  * @example fanFormula("Sheet1!B2:B74", { series: 0, method: "auto", lambda: "auto", horizon: 12, period: 12, levels: "80,95" }) // '=FW.FAN(Sheet1!B2:B74,12,"auto","auto","80,95",12)'
  */
 export function fanFormula(address: string, c: FanControls): string {
   const l = lambdaOption(c.lambda);
   const values = c.zeros === "missing" ? `IF(${address}=0,"",${address})` : address;
-  return `=FW.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
+  return `=${FW_NAMESPACE}.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
 }
 
 /** What the coverage-audit view shows. */
