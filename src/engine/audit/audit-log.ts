@@ -188,7 +188,7 @@ export function auditLog(input: AuditLogInput): AuditLog {
   const notes: string[] = [];
   if (skipped) notes.push(`${skipped} row${skipped === 1 ? " was" : "s were"} skipped for a blank actual or blank interval ends.`);
   if (input.horizons && horizons.some((h) => h > 1)) notes.push("Rows of one series and one step ahead are taken as forecasts from consecutive origins, in row order; for h > 1 the tests use every h-th origin with a Bonferroni bound (Diebold, Gunther & Tay 1998), because overlapping forecasts share shocks.");
-  if (input.groups && groupNames.length > 1) notes.push(`The pooled row ("${POOLED}") counts every row for the miss rate; clustering is tested within each series only (transition counts summed over the series).`);
+  if (input.groups && groupNames.length > 1) notes.push(`The pooled row ("${POOLED}") counts every row for the miss rate; clustering is tested within each series only (transition counts summed over the series). When the series' miss rates differ, that difference alone can make the pooled clustering test reject: read the per-series rows.`);
   const rows: AuditRow[] = [];
   for (const k of order) {
     const level = levels[k];

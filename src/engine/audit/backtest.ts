@@ -103,8 +103,9 @@ export function practicalMinimum(method: string, period: number): { length: numb
   const need = smallestLength(method, period);
   const m = parseMethod(method);
   const seasonal = period > 1 && (m === "auto" || m === "seasonal-naive" || /seasonal|winters/.test(m) || isArimaMethod(m));
-  const cands: [number, string][] = [[need, `the least ${method} can fit`], [PRACTICAL_MINIMUM, `the stated minimum of ${PRACTICAL_MINIMUM} values`]];
-  if (seasonal) cands.push([2 * period, `two full seasons of ${period}`]);
+  // On a tie the first reason is given: seasons, then the stated minimum, then the method's own.
+  const cands: [number, string][] = [[PRACTICAL_MINIMUM, `the stated minimum of ${PRACTICAL_MINIMUM} values`], [need, `the least ${method} can fit`]];
+  if (seasonal) cands.unshift([2 * period, `two full seasons of ${period}`]);
   let best = cands[0];
   for (const c of cands) if (c[0] > best[0]) best = c;
   return { length: best[0], reason: best[1] };
