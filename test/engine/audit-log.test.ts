@@ -110,7 +110,7 @@ describe("the h > 1 overlap rule by seeded simulation (correct random-walk inter
     for (let k = 0; k < reps; k++) {
       const y = [0];
       for (let t = 1; t < origins + h; t++) y.push(y[t - 1] + rng.normal());
-      const hits = Array.from({ length: origins }, (_, t) => (Math.abs(y[t + h] - y[t]) > z * Math.sqrt(h) ? 1 : 0));
+      const hits: number[] = Array.from({ length: origins }, (_, t) => (Math.abs(y[t + h] - y[t]) > z * Math.sqrt(h) ? 1 : 0));
       const naive = christoffersenIndependence(hits);
       const misses = hits.reduce((s, v) => s + v, 0);
       if (!naive.note && naive.p < 0.05) r.naiveInd++;
