@@ -5,6 +5,7 @@ import { fmt, requireLevelPercent } from "../_lib/check";
 import { isBlank } from "../_lib/cells";
 import type { RawCell } from "../series/screen";
 import { binomialTail, LrTest, Transitions, trafficLight, Zone } from "./coverage-tests";
+import { clopperPearson } from "./calibration";
 import { overlapTests } from "./overlap";
 import { intervalScore } from "./scores";
 import { Verdict, verdictOf } from "./verdict";
@@ -46,6 +47,8 @@ export interface AuditRow {
   above: number;
   below: number;
   coverage: number;
+  /** Clopper–Pearson 95% interval of the observed coverage (for error bars). */
+  coverageInterval: [number, number];
   nominal: number;
   kupiec: LrTest;
   independence: LrTest & Transitions;
@@ -226,7 +229,7 @@ function auditRow(group: string, pooled: boolean, h: number | null, level: numbe
     group, pooled, h, level, n, misses,
     above: all.filter((o) => o.side === 1).length,
     below: all.filter((o) => o.side === -1).length,
-    coverage, nominal: c, kupiec: tests.kupiec, independence: tests.independence, conditional: tests.conditional,
+    coverage, coverageInterval: clopperPearson(n - misses, n), nominal: c, kupiec: tests.kupiec, independence: tests.independence, conditional: tests.conditional,
     binomialTail: binomialTail(misses, n, p), zone: tl.zone, zoneCumulative: tl.cumulative, intervalScore: is / n,
     adjustment: tests.adjustment, verdict,
     rows: pooled ? [] : all.map((o) => o.row), sides: pooled ? [] : all.map((o) => o.side),
