@@ -60,7 +60,7 @@ export function calibrationGeometry(input: CalibrationChartInput): CalibrationGe
   const x = (s: number): number => plot.left + ((s - lo) / (hi - lo)) * side;
   const y = (s: number): number => plot.bottom - ((s - lo) / (hi - lo)) * side;
   const points = input.points.map((p) => ({ cx: x(p.nominal), cy: y(p.observed), y1: y(p.high), y2: y(p.low), label: p.label, inside: p.low <= p.nominal && p.nominal <= p.high }));
-  return { width, height: plot.bottom + 44, plot, range: [lo, hi], ticks, x, y, points };
+  return { width, height: plot.bottom + 56, plot, range: [lo, hi], ticks, x, y, points };
 }
 
 /**
@@ -96,7 +96,8 @@ export function calibrationChartSvg(input: CalibrationChartInput): string {
     p.push(`<text x="${(q.cx + 6).toFixed(1)}" y="${(q.cy - 4).toFixed(1)}" font-size="9" fill="${AUDIT_COLORS.text}">${esc(q.label)}</text>`);
   }
   p.push(`<text x="${((g.plot.left + g.plot.right) / 2).toFixed(1)}" y="${g.plot.bottom + 25}" font-size="9" text-anchor="middle" fill="${AUDIT_COLORS.text}">${promised}</text>`);
-  p.push(`<text class="legend" x="${g.plot.left}" y="${g.plot.bottom + 38}" font-size="9" fill="${AUDIT_COLORS.text}">dot: ${what}; bar: 95% binomial (Clopper–Pearson); dashed: calibrated</text>`);
+  p.push(`<text class="legend" x="${g.plot.left}" y="${g.plot.bottom + 38}" font-size="9" fill="${AUDIT_COLORS.text}">dot: ${what}; dashed line: calibrated</text>`);
+  p.push(`<text class="legend" x="${g.plot.left}" y="${g.plot.bottom + 50}" font-size="9" fill="${AUDIT_COLORS.text}">bar: 95% binomial interval (Clopper–Pearson)</text>`);
   p.push("</svg>");
   return p.join("\n");
 }

@@ -36,7 +36,7 @@ body{font-family:system-ui,-apple-system,'Segoe UI',Roboto,sans-serif;color:#3b3
 h1{font-size:20px;margin:0 0 4px}h2{font-size:15px;margin:24px 0 8px;border-bottom:1px solid #e2dccf;padding-bottom:2px}
 table{border-collapse:collapse;font-size:12px;margin:4px 0}th,td{border:1px solid #e2dccf;padding:3px 6px;text-align:left;vertical-align:top}
 td.num{text-align:right;font-variant-numeric:tabular-nums}.zone-green{background:#e3efd9}.zone-yellow{background:#f6e7b8}.zone-red{background:#f0cfc4}
-.meta td:first-child{color:#6b665d}.verdict{max-width:420px}code{font-size:12px}figure{margin:8px 0 16px}figcaption{font-size:12px;color:#6b665d}
+.meta td:first-child{color:#6b665d}.verdict{min-width:280px;max-width:460px}code{font-size:12px}figure{margin:8px 0 16px}figcaption{font-size:12px;color:#6b665d}
 .cautions li{margin:4px 0}`;
 
 /**

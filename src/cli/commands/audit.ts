@@ -4,7 +4,7 @@
 import * as crypto from "crypto";
 import * as fs from "fs";
 import * as path from "path";
-import { auditLog, calibrationTable, EngineError, POOLED, RawCell } from "../../engine";
+import { auditLog, calibrationTable, EngineError, isEngineError, POOLED, RawCell } from "../../engine";
 import type { AuditLog, Calibration } from "../../engine";
 import { calibrationChartSvg, coveragePoints, hitStripSvg } from "../../chart";
 import type { CalibrationPoint } from "../../chart";
@@ -77,13 +77,13 @@ export const auditCommand: Command = {
         if (!Number.isFinite(v)) throw new EngineError("input", `--level must be percentages like 80 or 80,95; "${s}" is not a number.`);
         return v;
       });
-      log = auditLog({
+      log = atFileLines(t, () => auditLog({
         actual,
         intervals: levels.map((level, k) => ({ level, lower: col(lowers[k], "lower"), upper: col(uppers[k], "upper") })),
         groups: p.has("by") ? col(p.text("by") as string, "by") : null,
         horizons: p.has("horizon-col") ? col(p.text("horizon-col") as string, "horizon-col") : null,
-        firstRow: 2,
-      });
+        firstRow: 1,
+      }));
     }
     let cal: Calibration | null = null;
     if (quant.length) {
@@ -92,7 +92,7 @@ export const auditCommand: Command = {
         if (!m || !Number.isFinite(Number(m[2]))) throw new EngineError("input", `--quantiles lists COLUMN=PROBABILITY pairs, e.g. --quantiles q10=0.1,q50=0.5,q90=0.9; "${s}" is not one.`);
         return { p: Number(m[2]), cells: col(m[1].trim(), "quantiles") };
       });
-      cal = calibrationTable(actual, qs, 2);
+      cal = atFileLines(t, () => calibrationTable(actual, qs, 1));
     }
     const json = auditJson(log, cal);
     const single = log && !log.groups.length && !log.horizons.length && log.levels.length === 1 && !cal;
@@ -126,6 +126,16 @@ export const auditCommand: Command = {
     return 0;
   },
 };
+
+/** Runs f; a message naming "Row N" (data rows from 1) names the file's line instead. */
+function atFileLines<T>(t: ReturnType<typeof readCsvFile>, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (isEngineError(e)) throw new EngineError(e.code, e.message.replace(/\bRow (\d+)/g, (_m, r) => `Line ${t.line(Number(r) - 1)}`));
+    throw e;
+  }
+}
 
 /** SHA-256 of a file, read in 1 MiB pieces. */
 function sha256Of(file: string): string {
