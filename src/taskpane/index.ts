@@ -463,7 +463,7 @@ async function runBacktest(): Promise<void> {
     const t = el("table", undefined, "fw-table");
     t.appendChild(el("caption", `Rolling-origin backtest of ${state.data.names[c.series]} (80% intervals; error = actual − forecast).`));
     const head = el("tr");
-    for (const h of ["h", "origins", "coverage", "error of mean", "error of median"]) {
+    for (const h of ["h", "origins", "coverage", "Kupiec p", "error of mean", "error of median"]) {
       const th = el("th", h);
       th.scope = "col";
       head.appendChild(th);
@@ -475,12 +475,17 @@ async function runBacktest(): Promise<void> {
       tr.appendChild(el("td", String(r.h), "num"));
       tr.appendChild(el("td", String(r.origins), "num"));
       tr.appendChild(el("td", r.coverage === null ? "n/a" : `${(100 * r.coverage).toFixed(0)}%`, "num"));
+      tr.appendChild(el("td", r.kupiecP === null ? "n/a" : r.kupiecP < 0.001 ? r.kupiecP.toExponential(1) : r.kupiecP.toFixed(3), "num"));
       tr.appendChild(el("td", fmtCell(r.meanErrorOfMean), "num"));
       tr.appendChild(el("td", fmtCell(r.meanErrorOfMedian), "num"));
       body.appendChild(tr);
     }
     t.appendChild(body);
-    out.replaceChildren(t);
+    // One verdict per step (the audit's rule), and which origins were used.
+    const verdicts = el("ul");
+    verdicts.className = "fw-backtest-verdicts";
+    for (const r of b.rows) if (r.verdict) verdicts.appendChild(el("li", `h = ${r.h}: ${r.verdict.headline} (zone ${r.verdict.colour})`, `zone-${r.verdict.colour}`));
+    out.replaceChildren(t, verdicts, el("p", b.originNote, "fw-note"));
   } catch (e) {
     out.textContent = e instanceof Error ? e.message : String(e);
   } finally {

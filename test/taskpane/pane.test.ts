@@ -230,6 +230,9 @@ test("a backtest runs from the pane with a progress bar and shows per-step resul
   await page.click("#fw-backtest-go");
   await page.waitForSelector("#fw-backtest table", { timeout: 20000 });
   expect(await page.locator("#fw-backtest tbody tr").count()).toBe(3);
+  expect(await page.locator("#fw-backtest .fw-backtest-verdicts li").count()).toBe(3);
+  expect(await page.textContent("#fw-backtest .fw-backtest-verdicts")).toMatch(/^h = 1: (Too many misses|Misses cluster|Intervals too wide \(too few misses\)|Consistent with the promised coverage)/);
+  expect(await page.textContent("#fw-backtest")).toMatch(/Origins after 24 to \d+ values \(\d+ refits\): the first fit uses 24 values \(two full seasons of 12\)/);
   expect(await page.isHidden("#fw-backtest-progress")).toBe(true);
   expect(env.offSite).toEqual([]);
 });
