@@ -5,13 +5,14 @@ import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
-import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
+import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditLog, pinball, backtestAsync, RawCell } from "../engine";
 import { publishedTotal, parseDependence, alignSeries, totalAcross, smearingMean, checkWindowStart, Forecaster } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs } from "./coerce";
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
 import { elementwise, finiteTable } from "./shape";
 import { cancelSignal, CancelSignal, NEVER_CANCELLED, withCancel } from "./cancel";
+import { auditInput, column, rowKey } from "./audit-args";
 
 function guard<T>(f: () => T): T {
   try {
@@ -406,46 +407,43 @@ export async function MODELINFO(values: any[][], method?: string, lambda?: any, 
   });
 }
 
-function column(v: unknown, name: string): RawCell[] {
-  const m = readMatrix(v, name);
-  if (m.length > 1 && m[0].length > 1) throw new EngineError("input", `${name} must be a single column or a single row; it is ${m.length}×${m[0].length}.`);
-  return m.length === 1 ? m[0] : m.map((r) => r[0]);
-}
-
 /**
- * Checks how often past intervals contained what happened: n, misses, observed coverage, and the Kupiec, independence, conditional-coverage and binomial-tail p-values, with the mean interval score.
+ * Checks how often past intervals contained what happened: n, misses, observed coverage, the Kupiec, independence, conditional-coverage and binomial-tail p-values, the mean interval score, the zone and one verdict. With groups: one row per series plus a pooled row; with horizons: per step ahead; with several levels: per level.
  * @customfunction COVERAGE
  * @helpurl https://localhost:3000/README.html#fwcoverage
  * @param {any[][]} actuals What happened, one per row (blanks are skipped).
- * @param {any[][]} lower The lower ends of the published intervals, same rows.
- * @param {any[][]} upper The upper ends, same rows.
- * @param {number} level The intervals' promised coverage in percent, e.g. 80 or 95.
- * @returns {any[][]} One row: n, misses, observed coverage, Kupiec p, independence p, conditional-coverage p, binomial tail p, mean interval score.
+ * @param {any[][]} lower The lower ends of the published intervals, same rows (one column per level).
+ * @param {any[][]} upper The upper ends, same rows (one column per level).
+ * @param {any} level The promised coverage in percent, e.g. 80; several as "80,95" or a range, one per column of lower and upper.
+ * @param {any[][]} [groups] The series name of each row: one result row per series plus a pooled row "all groups".
+ * @param {any[][]} [horizons] Steps ahead of each row (1, 2, 3, …): results per step; for h > 1 the tests use every h-th origin.
+ * @returns {any[][]} Per row: [group], [step], [level] (each only when used), n, misses, observed coverage, Kupiec p, independence p, conditional-coverage p, binomial tail p, mean interval score, zone, verdict.
  */
-export function COVERAGE(actuals: any[][], lower: any[][], upper: any[][], level: number): any[][] {
+export function COVERAGE(actuals: any[][], lower: any[][], upper: any[][], level: any, groups?: any[][], horizons?: any[][]): any[][] {
   return guard(() => {
-    const lv = requiredNumber(level, "level");
-    checkLevelPercent(lv);
-    const a = auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv);
-    return finiteTable([[a.n, a.misses, a.coverage, a.kupiec.p, a.independence.p, a.conditional.p, a.binomialTail, a.intervalScore]]);
+    const a = auditLog(auditInput(actuals, lower, upper, level, groups, horizons));
+    return finiteTable(a.rows.map((r) => [
+      ...rowKey(a, r), r.n, r.misses, r.coverage, r.kupiec.p, r.independence.p, r.conditional.p, r.binomialTail, r.intervalScore, r.verdict.colour, r.verdict.headline,
+    ]));
   });
 }
 
 /**
- * Mean interval (Winkler) score of past intervals: width plus a penalty for each miss. Lower is better.
+ * Mean interval (Winkler) score of past intervals: width plus a penalty for each miss. Lower is better. With groups, horizons or several levels: one row each (and a pooled row).
  * @customfunction INTERVALSCORE
  * @helpurl https://localhost:3000/README.html#fwintervalscore
  * @param {any[][]} actuals What happened, one per row (blanks are skipped).
- * @param {any[][]} lower The lower ends of the intervals, same rows.
- * @param {any[][]} upper The upper ends, same rows.
- * @param {number} level The intervals' coverage in percent, e.g. 80 or 95.
- * @returns {number} The mean interval score, in the units of the data.
+ * @param {any[][]} lower The lower ends of the intervals, same rows (one column per level).
+ * @param {any[][]} upper The upper ends, same rows (one column per level).
+ * @param {any} level The intervals' coverage in percent, e.g. 80; several as "80,95" or a range.
+ * @param {any[][]} [groups] The series name of each row: one score per series plus the pooled score.
+ * @param {any[][]} [horizons] Steps ahead of each row: one score per step.
+ * @returns {any[][]} The mean interval score in the units of the data; with groups, horizons or several levels, [group], [step], [level] and the score per row.
  */
-export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], level: number): number {
+export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], level: any, groups?: any[][], horizons?: any[][]): any[][] {
   return guard(() => {
-    const lv = requiredNumber(level, "level");
-    checkLevelPercent(lv);
-    return finiteResult(auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv).intervalScore, "The mean interval score");
+    const a = auditLog(auditInput(actuals, lower, upper, level, groups, horizons));
+    return finiteTable(a.rows.map((r) => [...rowKey(a, r), finiteResult(r.intervalScore, "The mean interval score")]));
   });
 }
 
@@ -479,7 +477,7 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
 }
 
 /**
- * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, and the mean error of the mean and of the median.
+ * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, the mean error of the mean and of the median, Kupiec's p-value and a verdict.
  * @customfunction BACKTEST
  * @helpurl https://localhost:3000/README.html#fwbacktest
  * @cancelable
@@ -490,7 +488,7 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
  * @param {number} [first] Length of the first fitting window (default: the smallest the method needs, or the latest 500 origins of a long series).
- * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median.
+ * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median, Kupiec p, verdict.
  */
 export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number): Promise<any[][]> {
   // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
@@ -504,7 +502,7 @@ export async function BACKTEST(values: any[][], horizon: number, method?: string
     const s = readSeries(values);
     if (s.series.length !== 1) throw new EngineError("input", `FW.BACKTEST checks one series at a time; the range has ${s.series.length} columns.`);
     const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, withCancel(yieldToHost, cancel));
-    return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? ""]));
+    return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? "", r.kupiecP ?? "", r.verdict?.headline ?? ""]));
   });
 }
 

@@ -6,7 +6,8 @@
 import "../functions/functions";
 import { RawCell, parseLevels, backtestAsync } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
-import { auditView, checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
+import { auditLogView, groupChoices } from "./audit-view";
+import { checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
 import { pastedData } from "./paste";
 import { publishedView } from "./views/published";
 import { acrossRowView, totalOverSentence } from "./views/totals";
@@ -326,9 +327,29 @@ function renderAuditSelects(): void {
   const m = /(\d+(?:\.\d+)?)/.exec(names[picks[1][1]] ?? "");
   // A level in the lower end's name ("lower80", "low 95%"); a column number ("column 1") is not one.
   if (m && Number(m[1]) >= 50 && Number(m[1]) < 100) $<HTMLInputElement>("fw-audit-level").value = m[1];
+  const group = $<HTMLSelectElement>("fw-audit-group");
+  const gc = groupChoices(state.data);
+  group.replaceChildren(...gc.options.map(([value, label]) => {
+    const o = el("option", label);
+    o.value = value;
+    return o;
+  }));
+  group.value = gc.pick;
   $("fw-audit-readout").replaceChildren();
-  $("fw-audit-strip").replaceChildren();
+  clearAudit();
+}
+
+function clearAudit(): void {
+  for (const id of ["fw-audit-readout", "fw-audit-strip", "fw-audit-calibration", "fw-audit-notes"]) $(id).replaceChildren();
   $("fw-audit-verdict").textContent = "";
+  $("fw-audit-headline").textContent = "";
+  $("fw-audit-headline").className = "fw-verdict";
+  $("fw-audit-show-row").hidden = true;
+}
+
+function svgNode(svg: string): Node {
+  const doc = new DOMParser().parseFromString(svg, "image/svg+xml");
+  return document.importNode(doc.documentElement, true);
 }
 
 function renderPublishedSelects(): void {
@@ -391,26 +412,37 @@ function renderPublished(): void {
 }
 
 function renderAudit(): void {
-  const v = auditView(state.data, Number($<HTMLSelectElement>("fw-audit-actual").value), Number($<HTMLSelectElement>("fw-audit-lower").value), Number($<HTMLSelectElement>("fw-audit-upper").value), Number($<HTMLInputElement>("fw-audit-level").value));
+  const show = $<HTMLSelectElement>("fw-audit-show");
+  const v = auditLogView(state.data, {
+    actual: Number($<HTMLSelectElement>("fw-audit-actual").value), lower: Number($<HTMLSelectElement>("fw-audit-lower").value), upper: Number($<HTMLSelectElement>("fw-audit-upper").value),
+    level: Number($<HTMLInputElement>("fw-audit-level").value), group: $<HTMLSelectElement>("fw-audit-group").value, show: show.value || undefined,
+  });
   const err = $("fw-audit-error");
-  const readout = $("fw-audit-readout");
   if (!v.ok) {
     err.hidden = false;
     err.textContent = v.message;
-    readout.replaceChildren();
-    $("fw-audit-strip").replaceChildren();
-    $("fw-audit-verdict").textContent = "";
+    clearAudit();
     return;
   }
   err.hidden = true;
-  readout.replaceChildren();
+  clearAudit();
+  if (v.choices.length) {
+    show.replaceChildren(...v.choices.map((g) => el("option", g)));
+    show.value = v.shown;
+    $("fw-audit-show-row").hidden = false;
+  }
+  const head = $("fw-audit-headline");
+  head.textContent = `${v.shown ? `${v.shown}: ` : ""}${v.row.verdict.headline} (zone ${v.colour})`;
+  head.className = `fw-verdict zone-${v.colour}`;
+  const readout = $("fw-audit-readout");
   for (const [k, val] of v.lines) {
     readout.appendChild(el("dt", k));
     readout.appendChild(el("dd", val));
   }
-  const doc = new DOMParser().parseFromString(v.strip, "image/svg+xml");
-  $("fw-audit-strip").replaceChildren(document.importNode(doc.documentElement, true));
-  $("fw-audit-verdict").textContent = v.audit.verdict;
+  if (v.strip) $("fw-audit-strip").replaceChildren(svgNode(v.strip));
+  $("fw-audit-calibration").replaceChildren(svgNode(v.calibration));
+  $("fw-audit-verdict").textContent = v.verdict;
+  $("fw-audit-notes").replaceChildren(...v.notes.map((n) => el("li", n)));
 }
 
 async function runBacktest(): Promise<void> {
@@ -434,7 +466,7 @@ async function runBacktest(): Promise<void> {
     const t = el("table", undefined, "fw-table");
     t.appendChild(el("caption", `Rolling-origin backtest of ${state.data.names[c.series]} (80% intervals; error = actual − forecast).`));
     const head = el("tr");
-    for (const h of ["h", "origins", "coverage", "error of mean", "error of median"]) {
+    for (const h of ["h", "origins", "coverage", "Kupiec p", "error of mean", "error of median"]) {
       const th = el("th", h);
       th.scope = "col";
       head.appendChild(th);
@@ -446,12 +478,17 @@ async function runBacktest(): Promise<void> {
       tr.appendChild(el("td", String(r.h), "num"));
       tr.appendChild(el("td", String(r.origins), "num"));
       tr.appendChild(el("td", r.coverage === null ? "n/a" : `${(100 * r.coverage).toFixed(0)}%`, "num"));
+      tr.appendChild(el("td", r.kupiecP === null ? "n/a" : r.kupiecP < 0.001 ? r.kupiecP.toExponential(1) : r.kupiecP.toFixed(3), "num"));
       tr.appendChild(el("td", fmtCell(r.meanErrorOfMean), "num"));
       tr.appendChild(el("td", fmtCell(r.meanErrorOfMedian), "num"));
       body.appendChild(tr);
     }
     t.appendChild(body);
-    out.replaceChildren(t);
+    // One verdict per step (the audit's rule), and which origins were used.
+    const verdicts = el("ul");
+    verdicts.className = "fw-backtest-verdicts";
+    for (const r of b.rows) if (r.verdict) verdicts.appendChild(el("li", `h = ${r.h}: ${r.verdict.headline} (zone ${r.verdict.colour})`, `zone-${r.verdict.colour}`));
+    out.replaceChildren(t, verdicts, el("p", b.originNote, "fw-note"));
   } catch (e) {
     out.textContent = e instanceof Error ? e.message : String(e);
   } finally {
@@ -545,7 +582,11 @@ function wire(): void {
   });
   $("fw-write-go").addEventListener("click", () => void writeToSheet());
   $("fw-write-overwrite").addEventListener("click", () => void writeToSheet(true));
-  $("fw-audit-go").addEventListener("click", renderAudit);
+  $("fw-audit-go").addEventListener("click", () => {
+    $<HTMLSelectElement>("fw-audit-show").replaceChildren();
+    renderAudit();
+  });
+  $("fw-audit-show").addEventListener("change", renderAudit);
   $("fw-pub-go").addEventListener("click", renderPublished);
   $("fw-pub-controls").addEventListener("submit", (e) => e.preventDefault());
   $("fw-audit-controls").addEventListener("submit", (e) => e.preventDefault());

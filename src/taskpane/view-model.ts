@@ -1,6 +1,6 @@
 // The pane's view model: raw columns and control values in, everything the pane shows out.
 // Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
-import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
+import { describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
 import { fanChartSvg } from "../chart/fan-chart";
 import { FW_NAMESPACE } from "./namespace";
 import { formatWhole } from "./locale";
@@ -13,6 +13,8 @@ export interface PaneData {
   columns: RawCell[][];
   /** Labels of the rows (periods), when known. */
   rowLabels?: string[];
+  /** Every column of labels (text such as series names or dates), by name, when known. */
+  labelColumns?: { name: string; values: string[] }[];
   /** The range address (in Excel), for the formula the pane writes. */
   address?: string;
   /** 1 when the first row of the range was a header. */
@@ -221,44 +223,3 @@ export function fanFormula(address: string, c: FanControls): string {
   return `=${FW_NAMESPACE}.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
 }
 
-/** What the coverage-audit view shows. */
-export type AuditView =
-  | { ok: true; audit: CoverageAudit; strip: string; lines: [string, string][] }
-  | { ok: false; message: string };
-
-/**
- * A strip of hits and misses over time (one cell per row, misses in red-brown), so clustering is
- * visible at a glance. Self-contained SVG.
- * @example hitStripSvg([0, 1, 0], 300).includes("miss") // true
- */
-export function hitStripSvg(hits: readonly number[], width = 300): string {
-  const n = hits.length;
-  const w = Math.max(1, Math.min(12, Math.floor(width / Math.max(n, 1))));
-  const h = 18;
-  const cells = hits.map((v, i) => `<rect class="${v ? "miss" : "hit"}" x="${i * w}" y="0" width="${Math.max(w - (w > 3 ? 1 : 0), 1)}" height="${h}" fill="${v ? "#9c3d1f" : "#e9c27a"}"/>`).join("");
-  return `<svg xmlns="http://www.w3.org/2000/svg" width="${n * w}" height="${h}" viewBox="0 0 ${n * w} ${h}" role="img" aria-label="Hits and misses over time: ${hits.filter((v) => v).length} misses in ${n} rows"><title>Hits (ochre) and misses (red-brown), oldest first</title>${cells}</svg>`;
-}
-
-/**
- * Audits the chosen columns (actual, lower, upper) at a level, with the strip and the readout lines.
- * @example auditView(data, 5, 1, 2, 80).ok
- */
-export function auditView(data: PaneData, actual: number, lower: number, upper: number, level: number): AuditView {
-  try {
-    const a = auditCoverage(data.columns[actual] ?? [], data.columns[lower] ?? [], data.columns[upper] ?? [], level, 1 + data.headerRows);
-    const p = (x: number): string => (x < 0.001 ? x.toExponential(1) : x.toFixed(3));
-    const lines: [string, string][] = [
-      ["observed coverage", `${(100 * a.coverage).toFixed(1)}% of ${a.n} (nominal ${(100 * a.nominal).toFixed(0)}%)`],
-      ["misses", `${a.misses}${a.skipped ? ` (${a.skipped} rows skipped for blanks)` : ""}`],
-      ["Kupiec (miss rate)", `p = ${p(a.kupiec.p)}`],
-      ["independence (clustering)", `p = ${p(a.independence.p)}`],
-      ["conditional coverage", `p = ${p(a.conditional.p)}`],
-      ["zone", a.zone],
-      ["mean interval score", a.intervalScore.toPrecision(5)],
-    ];
-    return { ok: true, audit: a, strip: hitStripSvg(a.hits), lines };
-  } catch (e) {
-    if (isEngineError(e)) return { ok: false, message: e.message };
-    return { ok: false, message: `Fanwise could not audit this (${e instanceof Error ? e.message : String(e)}).` };
-  }
-}

@@ -26,8 +26,8 @@ const expected: Record<string, [string, boolean][]> = {
   TOTALACROSS: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["seed", true], ["from", true]],
   SMEARMEAN: [["mu", false], ["residuals", false], ["lambda", false]],
   MODELINFO: [["values", false], ["method", true], ["lambda", true], ["period", true]],
-  COVERAGE: [["actuals", false], ["lower", false], ["upper", false], ["level", false]],
-  INTERVALSCORE: [["actuals", false], ["lower", false], ["upper", false], ["level", false]],
+  COVERAGE: [["actuals", false], ["lower", false], ["upper", false], ["level", false], ["groups", true], ["horizons", true]],
+  INTERVALSCORE: [["actuals", false], ["lower", false], ["upper", false], ["level", false], ["groups", true], ["horizons", true]],
   PINBALL: [["actuals", false], ["quantiles", false], ["p", false]],
   BACKTEST: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["first", true]],
 };
@@ -45,7 +45,7 @@ test("functions.json was built (npm run build) and lists every FW function with 
     expect(f.helpUrl).toMatch(/^https:\/\/[^/?#]+(\/[^?#]*)?\/README\.html#fw[a-z]+$/);
     expect(f.parameters.map((p) => [p.name, Boolean(p.optional)])).toEqual(params);
     // a scalar result carries no dimensionality in the generated metadata
-    expect(f.result.dimensionality).toBe(id === "INTERVALSCORE" || id === "PINBALL" ? undefined : "matrix");
+    expect(f.result.dimensionality).toBe(id === "PINBALL" ? undefined : "matrix");
   }
   expect(meta.functions.map((f) => f.id).sort()).toEqual(Object.keys(expected).sort());
 });

@@ -209,11 +209,15 @@ test("coverage audit on the demo forecast log: observed vs nominal, the tests, t
   if (!(await page.isVisible("#fw-demo-log-go"))) await page.click("#fw-paste-box summary");
   await page.click("#fw-demo-log-go");
   await page.waitForSelector("#fw-audit-strip svg");
-  expect(await page.textContent("#fw-audit-readout")).toMatch(/observed coverage75\.0% of 36 \(nominal 80%\)/);
+  expect(await page.textContent("#fw-audit-readout")).toMatch(/observed coverage75\.0% of 36 \(nominal 80%; 95% interval 57\.8–87\.9%\)/);
   expect(await page.textContent("#fw-audit-readout")).toMatch(/zonegreen/);
   expect(await page.locator("#fw-audit-strip rect.miss").count()).toBe(9);
   expect(await page.locator("#fw-audit-strip rect.hit").count()).toBe(27);
-  expect(await page.textContent("#fw-audit-verdict")).toMatch(/27 of 36 actuals .* within what chance explains/);
+  expect(await page.textContent("#fw-audit-strip")).toMatch(/hit \(inside\)[\s\S]*miss above[\s\S]*miss below/);
+  expect(await page.textContent("#fw-audit-strip")).toMatch(/2023-01[\s\S]*2025-12/);
+  expect(await page.textContent("#fw-audit-headline")).toBe("Consistent with the promised coverage (zone green)");
+  expect(await page.textContent("#fw-audit-verdict")).toMatch(/27 of 36 inside \(75\.0%; 80\.0% promised\)/);
+  expect(await page.locator("#fw-audit-calibration .error-bar").count()).toBe(2); // 80% and 95% (lower95/upper95 found by name)
   await page.selectOption("#fw-audit-lower", { label: "upper80" });
   await page.selectOption("#fw-audit-upper", { label: "lower80" });
   await page.click("#fw-audit-go");
@@ -227,6 +231,9 @@ test("a backtest runs from the pane with a progress bar and shows per-step resul
   await page.click("#fw-backtest-go");
   await page.waitForSelector("#fw-backtest table", { timeout: 20000 });
   expect(await page.locator("#fw-backtest tbody tr").count()).toBe(3);
+  expect(await page.locator("#fw-backtest .fw-backtest-verdicts li").count()).toBe(3);
+  expect(await page.textContent("#fw-backtest .fw-backtest-verdicts")).toMatch(/^h = 1: (Too many misses|Misses cluster|Intervals too wide \(too few misses\)|Consistent with the promised coverage)/);
+  expect(await page.textContent("#fw-backtest")).toMatch(/Origins after 24 to \d+ values \(\d+ refits\): the first fit uses 24 values \(two full seasons of 12\)/);
   expect(await page.isHidden("#fw-backtest-progress")).toBe(true);
   expect(env.offSite).toEqual([]);
 });

@@ -1,5 +1,5 @@
 // fanwise backtest: rolling-origin forecasts over the series' own past — coverage, interval score
-// and the errors of the mean and the median per step ahead.
+// and the errors of the mean and the median per step ahead, with Kupiec's p and a verdict per step.
 import { backtest, isEngineError } from "../../engine";
 import { Command, COMMON, IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
@@ -38,15 +38,25 @@ export const backtestCommand: Command = {
       command: "backtest",
       json: () => {
         const series: Record<string, unknown> = {};
-        for (const r of results) series[r.name] = r.b ? { horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, steps: r.b.rows } : { error: r.error };
+        for (const r of results) {
+          series[r.name] = r.b
+            ? {
+              horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, origins: r.b.origins, originNote: r.b.originNote,
+              steps: r.b.rows.map((s) => ({ ...s, verdict: s.verdict ? `${s.verdict.headline}. ${s.verdict.text}` : null, headline: s.verdict?.headline ?? null, zone: s.verdict?.colour ?? null })),
+            }
+            : { error: r.error };
+        }
         return { series };
       },
-      header: ["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "note"],
+      header: ["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "kupiec_p", "independence_p", "zone", "verdict", "note"],
       rows: () => {
         const rows: unknown[][] = [];
         for (const r of results) {
-          if (!r.b) { rows.push([r.name, "", "", "", "", "", "", r.error]); continue; }
-          for (const s of r.b.rows) rows.push([r.name, s.h, s.origins, s.coverage, s.intervalScore, s.meanErrorOfMean, s.meanErrorOfMedian, s.h === 1 ? r.b.failureNote ?? "" : ""]);
+          if (!r.b) { rows.push([r.name, "", "", "", "", "", "", "", "", "", "", r.error]); continue; }
+          for (const s of r.b.rows) {
+            const note = s.h === 1 ? [r.b.originNote, r.b.failureNote ?? ""].filter((x) => x).join(" ") : "";
+            rows.push([r.name, s.h, s.origins, s.coverage, s.intervalScore, s.meanErrorOfMean, s.meanErrorOfMedian, s.kupiecP ?? "", s.independenceP ?? "", s.verdict?.colour ?? "", s.verdict?.headline ?? "", note]);
+          }
         }
         return rows;
       },
