@@ -9,7 +9,7 @@ import type { AuditLog, Calibration } from "../../engine";
 import { calibrationChartSvg, coveragePoints, hitStripSvg } from "../../chart";
 import type { CalibrationPoint } from "../../chart";
 import { readCsvFile } from "../csv-file";
-import { Command, COMMON, IO_OPTIONS } from "../command";
+import { Command, IO_OPTIONS } from "../command";
 import { emit } from "../output";
 import { fileArgument, readTable } from "../series-input";
 import { CellTable, csvTable } from "../table";
