@@ -278,4 +278,13 @@ describe("ARIMA with a mistyped period", () => {
     const y = Array.from({ length: 40 }, (_, i) => 10 + i * 0.1 + Math.sin(i));
     expect(() => fitArima(y, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 1e9, constant: false })).toThrow(/needs at least .* values \(period 1000000000\)/);
   });
+  test("the automatic search with a period of 1e9 tries no seasonal terms, says so, and allocates nothing of that size", () => {
+    const y = Array.from({ length: 40 }, (_, i) => 10 + i * 0.1 + Math.sin(i));
+    const search = autoArima(y, 1e9);
+    expect(search.model.order.P + search.model.order.Q + search.model.order.D).toBe(0);
+    expect(search.notes.join(" ")).toMatch(/Period 1000000000 is not shorter than the series \(40 values\): no seasonal terms/);
+  });
+  test("the differencing polynomial without a seasonal difference ignores the period (common practice: (1 − B)^d only)", () => {
+    expect(differencingPolynomial(1, 0, 1e9)).toEqual([1, -1]);
+  });
 });

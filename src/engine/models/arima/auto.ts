@@ -32,7 +32,8 @@ export const MAX_MODELS = 60;
 export function autoArima(w: readonly number[], m: number): ArimaSearch {
   const notes: string[] = [];
   let D = 0;
-  const seasonal = m >= 2;
+  const seasonal = m >= 2 && m < w.length;
+  if (m >= 2 && !seasonal) notes.push(`Period ${m} is not shorter than the series (${w.length} values): no seasonal terms were tried.`);
   if (seasonal) {
     const ch = canovaHansen(w, m);
     if (ch === null) notes.push(`Seasonal difference not tested (fewer than ${3 * m} values): D = 0.`);

@@ -41,6 +41,7 @@ function multiply(a: readonly number[], b: readonly number[]): number[] {
 export function differencingPolynomial(d: number, D: number, m: number): number[] {
   let poly = [1];
   for (let i = 0; i < d; i++) poly = multiply(poly, [1, -1]);
+  if (D <= 0) return poly; // no seasonal factor: nothing of length m is built (m may be any size)
   const seasonal = new Array(m + 1).fill(0);
   seasonal[0] = 1;
   seasonal[m] = -1;
