@@ -64,7 +64,7 @@ export { kpss, canovaHansen } from "./models/arima/unit-root";
 export { stateSpaceMoments } from "./models/state-space";
 export type { StateSpaceForm } from "./models/state-space";
 export { fitForecast, checkHorizon, parseTransform } from "./models/fit";
-export { chooseLambdaAuto, profileModelLambda, originalScaleFit, jacobianOf, aiccOf, transformSeries } from "./models/lambda-choice";
+export { chooseLambdaAuto, fitLambdaForModel, profileModelLambda, originalScaleFit, jacobianOf, aiccOf, transformSeries } from "./models/lambda-choice";
 export type { LambdaAuto, LambdaCandidate, ModelLambda, ModelLambdaOptions, OriginalScaleFit } from "./models/lambda-choice";
 export type { Forecaster, ForecastOptions, LambdaSpec } from "./models/fit";
 export { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels } from "./models/fan";

@@ -34,7 +34,10 @@ export interface MeanResult {
   accuracy: string | null;
 }
 
-/** Reads a mean-method keyword (default `auto`). */
+/**
+ * Reads a mean-method keyword (default `auto`); the message lists the three.
+ * @example parseMeanMethod("Exact") // "exact"
+ */
 export function parseMeanMethod(method: unknown): MeanMethod {
   if (method === undefined || method === null || method === "") return "auto";
   const k = String(method).trim().toLowerCase();

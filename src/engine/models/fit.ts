@@ -2,6 +2,7 @@
 // fit the method (or choose one by AICc). The one entry the faces use.
 import { EngineError } from "../errors";
 import { fmt } from "../_lib/check";
+import { cap } from "../_lib/cells";
 import { cleanSeries } from "../series/clean";
 import type { RawCell } from "../series/screen";
 import { isConstant } from "../series/positive";
@@ -161,9 +162,12 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
     if (firstBad >= 0) {
       const row = (options.firstRow ?? 1) + clean.leadingBlanks + firstBad;
       const c = autoShift(y);
+      const zeros = y.filter((v) => v === 0).length;
+      const negatives = y.filter((v) => v < 0).length;
+      const what = [zeros ? `${zeros} zero${zeros > 1 ? "s" : ""}` : "", negatives ? `${negatives} negative value${negatives > 1 ? "s" : ""}` : ""].filter(Boolean).join(" and ");
       throw new EngineError("input", shift === 0
-        ? `${label} has a value ≤ 0 (${fmt(y[firstBad])} in row ${row}); Box-Cox needs values > 0. Use shift "auto" (adds ${fmt(c)}; command line --shift auto) or transform "yeo-johnson" (command line --transform yeo-johnson).`
-        : `${label} has ${fmt(y[firstBad])} in row ${row}, and ${fmt(y[firstBad])} + shift ${fmt(shift)} is not > 0. Use a shift above ${fmt(-Math.min(...y))}, shift "auto" (adds ${fmt(c)}) or transform "yeo-johnson".`);
+        ? `${cap(label)} has ${what} (first: ${fmt(y[firstBad])} in row ${row}); Box-Cox needs values > 0. Use shift "auto" (adds ${fmt(c)}; command line --shift auto) or transform "yeo-johnson" (command line --transform yeo-johnson).`
+        : `${cap(label)} has ${fmt(y[firstBad])} in row ${row}, and ${fmt(y[firstBad])} + shift ${fmt(shift)} is not > 0. Use a shift above ${fmt(-Math.min(...y))}, shift "auto" (adds ${fmt(c)}) or transform "yeo-johnson".`);
     }
   }
   if (shift !== 0) notes.push(`Box-Cox of the values + ${fmt(shift)} (shift${shiftSpec === "auto" ? " auto: −minimum + half the smallest step above it" : ""}); results are back on the original scale with the shift taken off.`);

@@ -6,6 +6,7 @@ import { EngineError } from "../errors";
 import { fmt } from "../_lib/check";
 import { findRoot, minimizeBounded } from "../_lib/brent";
 import { chiSquareQuantile } from "../distribution/chisquare";
+import type { LambdaChoice } from "../transform/fit-lambda";
 import { READABLE_LAMBDAS } from "../transform/readable";
 import { boundHit } from "../transform/bounds";
 import { logJacobian, makeTransform, TransformKind, TransformSpec, transformForward } from "../transform/spec";
@@ -63,7 +64,10 @@ export function originalScaleFit(model: FittedModel, y: readonly number[], t: Tr
   return { loglik, aicc: aiccOf(loglik, k, count), k, jacobian };
 }
 
-/** The transformed series, or null where the transform fails (overflow, outside its domain) or leaves a constant. */
+/**
+ * The transformed series, or null where the transform fails (overflow, outside its domain) or leaves a constant.
+ * @example transformSeries([1, Math.E], makeTransform("box-cox", 0)) // [0, 1]
+ */
 export function transformSeries(y: readonly number[], t: TransformSpec): number[] | null {
   const w = y.map((v) => transformForward(t, v));
   let first: number | null = null;
@@ -192,10 +196,31 @@ export function chooseLambdaAuto(y: readonly number[], options: ModelLambdaOptio
   for (let i = 1; i < pts.length; i++) if (vals[i] > vals[top]) top = i;
   const lo = top === 0 ? pts[0] - 1 : pts[top - 1];
   const hi = top === pts.length - 1 ? pts[pts.length - 1] + 1 : pts[top + 1];
-  const opt = minimizeBounded((l) => -ll(l), lo, hi, 1e-4);
-  const llMax = Math.max(-opt.fx, vals[top]);
-  const lamMax = -opt.fx >= vals[top] ? opt.x : pts[top];
   const cut = 0.5 * chiSquareQuantile(level, 1);
+  let llMax = vals[top];
+  let lamMax = pts[top];
+  // A parabola through the best readable point and its neighbours estimates the profile's peak;
+  // only when that could come near the cut is the peak searched for (each step is a full fit).
+  const interior = top > 0 && top < pts.length - 1;
+  let needSearch = true;
+  if (interior) {
+    const [x0, x1, x2] = [pts[top - 1], pts[top], pts[top + 1]];
+    const [f0, f1, f2] = [vals[top - 1], vals[top], vals[top + 1]];
+    const d = (x1 - x0) * (f1 - f2) - (x1 - x2) * (f1 - f0);
+    if (Number.isFinite(f0) && Number.isFinite(f2) && d !== 0) {
+      const xv = x1 - 0.5 * ((x1 - x0) ** 2 * (f1 - f2) - (x1 - x2) ** 2 * (f1 - f0)) / d;
+      const a = ((f2 - f1) / (x2 - x1) - (f1 - f0) / (x1 - x0)) / (x2 - x0);
+      const fv = f1 + (xv - x1) * ((f1 - f0) / (x1 - x0)) + a * (xv - x1) * (xv - x0);
+      if (a < 0 && Number.isFinite(fv) && Math.max(fv, f1) - best.fit.loglik < 0.25 * cut) needSearch = false;
+    }
+  }
+  if (needSearch) {
+    const opt = minimizeBounded((l) => -ll(l), lo, hi, 1e-3);
+    if (-opt.fx > llMax) {
+      llMax = -opt.fx;
+      lamMax = opt.x;
+    }
+  }
   const how = method === "auto" ? `λ and the form (${form}) chosen together` : `λ chosen for ${form}`;
   if (llMax - best.fit.loglik <= cut) {
     return {
@@ -295,4 +320,27 @@ export function profileModelLambda(y: readonly number[], method: Exclude<MethodN
   if (hit) notes.push(`λ̂ sits on the ${hit} end of the widest search (${fmt(bounds[hit === "lower" ? 0 : 1])}); the likelihood may keep rising beyond it.`);
   if (interval[0] === null || interval[1] === null) notes.push(`The ${Math.round(level * 100)}% interval is open at the ${interval[0] === null ? "low" : "high"} end: the likelihood does not fall far enough within λ = ${interval[0] === null ? -5 : 5}.`);
   return { lambda: best.x, loglik: best.f, interval, level, bounds, onBound: hit, method, note: notes.join(" ") };
+}
+
+/**
+ * λ as every face suggests it: `auto` (the λ {@link chooseLambdaAuto} picks, which is the λ a
+ * forecast with lambda "auto" then uses) or `model` (the chosen form's own maximum), each with the
+ * likelihood-ratio interval of the chosen form's profile likelihood on the original scale
+ * (METHODS §7) — so the interval shown always belongs to the likelihood that chose the λ.
+ * @example fitLambdaForModel(air, { period: 12 }).lambda // 0
+ */
+export function fitLambdaForModel(y: readonly number[], options: ModelLambdaOptions & { lambdaMethod?: "auto" | "model" } = {}): LambdaChoice {
+  const a = chooseLambdaAuto(y, options);
+  const p = profileModelLambda(y, a.model.method, options);
+  const notes = [a.note];
+  if (options.lambdaMethod === "model") {
+    if (p.note) notes.push(p.note);
+    return { lambda: p.lambda, method: "model", interval: p.interval, level: p.level, readable: p.lambda, loglik: p.loglik, bounds: p.bounds, onBound: p.onBound, window: null, n: y.length, note: `λ maximises the likelihood of ${a.model.method} on the original scale. ${notes.slice(1).join(" ")}`.trim() };
+  }
+  const [lo, hi] = p.interval;
+  if ((lo !== null && a.lambda < lo - 1e-6) || (hi !== null && a.lambda > hi + 1e-6)) {
+    notes.push(`The profile likelihood of ${a.model.method} peaks at λ = ${fmt(p.lambda)}, and its interval leaves λ = ${fmt(a.lambda)} out; give lambda "model" to use the peak.`);
+  }
+  if (p.onBound) notes.push(p.note);
+  return { lambda: a.lambda, method: "auto", interval: p.interval, level: p.level, readable: a.lambda, loglik: a.fit.loglik, bounds: p.bounds, onBound: null, window: null, n: y.length, note: notes.join(" ") };
 }

@@ -1,6 +1,8 @@
 import { EngineError, isEngineError } from "../errors";
 import { fmt } from "../_lib/check";
-import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
+import type { LambdaChoice } from "../transform/fit-lambda";
+import { fitLambdaForModel } from "../models/lambda-choice";
+import { autoShift } from "../transform/shift";
 import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
 import { isBlank, cap } from "../_lib/cells";
 
@@ -28,11 +30,11 @@ export interface ScreenResult {
   negatives: number;
   nonPositive: number;
   boxCoxUsable: boolean;
-  /** Suggested λ (the readable value inside the likelihood interval), when Box-Cox is usable. */
+  /** Suggested λ: exactly the λ a forecast with lambda "auto" (method "auto") uses, when Box-Cox is usable. */
   suggestedLambda: number | null;
   lambda: LambdaChoice | null;
   fix: SuggestedFix;
-  /** Suggested shift c for a shifted Box-Cox (value + c > 0), when the fix is "shift" or "yeo-johnson". */
+  /** The shift "auto" would add for a shifted Box-Cox (value + c > 0), when the fix is "shift" or "yeo-johnson". */
   shift: number | null;
   /** A sentence a user understands. */
   message: string;
@@ -41,9 +43,10 @@ export interface ScreenResult {
 
 /**
  * Screens a raw series for Box-Cox: counts numbers, blanks (leading, trailing, interior) and text;
- * finds the minimum and values ≤ 0; says whether Box-Cox is usable, suggests λ (Guerrero 1993 with
- * window = period, 2 when period is 1; maximum likelihood, Box & Cox 1964, when the series is too
- * short for two windows) and, when Box-Cox is not usable, the fix (shift by c, Yeo-Johnson 2000,
+ * finds the minimum and values ≤ 0; says whether Box-Cox is usable, suggests the λ a forecast with
+ * lambda "auto" uses (readable λ and form together by original-scale AICc; Box & Cox 1964 for the
+ * likelihood) with the chosen form's likelihood interval and, when Box-Cox is not usable, the fix
+ * naming the argument that works (shift "auto", transform "yeo-johnson" — Yeo & Johnson 2000 —,
  * fill the gaps, or "too short").
  * @example screenSeries([3, 0, 5, 6], { label: "Old Quay" }).fix // "shift"
  */
@@ -96,13 +99,12 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
     return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix: "no-numbers", shift: null, message: `${cap(label)} has no numbers.${textNote}` };
   }
   if (nonPositive > 0) {
-    const smallestPositive = numbers.filter((v) => v > 0).reduce((a, b) => Math.min(a, b), Infinity);
-    const shift = -(min as number) + (Number.isFinite(smallestPositive) ? smallestPositive : 1);
+    const shift = autoShift(numbers);
     const what = [zeros ? `${zeros} zero${zeros > 1 ? "s" : ""}` : "", negatives ? `${negatives} negative value${negatives > 1 ? "s" : ""}` : ""].filter(Boolean).join(" and ");
     const fix: SuggestedFix = negatives > 0 ? "yeo-johnson" : "shift";
-    const advice = negatives > 0
-      ? `Use Yeo-Johnson, or shift by c = ${fmt(shift)} before Box-Cox`
-      : `Shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`;
+    const yj = `transform "yeo-johnson" (command line: --transform yeo-johnson)`;
+    const sh = `shift "auto", which adds ${fmt(shift)} (command line: --shift auto)`;
+    const advice = negatives > 0 ? `Use ${yj}, or ${sh}` : `Use ${sh}, or ${yj}`;
     return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix, shift, message: `Not Box-Cox ready: ${label} has ${what} (minimum ${fmt(min as number)}, first at ${where(firstBad)}); Box-Cox needs values > 0. ${advice}.${textNote}` };
   }
   if (numbers.length < MLE_MIN_LENGTH) {
@@ -111,27 +113,26 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   if (numbers.every((v) => v === numbers[0])) {
     return { ...base, boxCoxUsable: true, suggestedLambda: 1, lambda: null, fix: "constant", shift: null, message: `${cap(label)} is constant; no transform is needed (λ = 1).${textNote}` };
   }
-  const window = period > 1 ? period : 2;
-  let lambda: LambdaChoice;
-  try {
-    lambda = fitLambda(numbers, { method: numbers.length >= 2 * window ? "guerrero" : "mle", period, label });
-  } catch (e) {
-    if (!isEngineError(e)) throw e;
-    return { ...base, boxCoxUsable: true, suggestedLambda: null, lambda: null, fix: "too-short", shift: null, message: `${e.message}${textNote}` };
-  }
-  const how = lambda.method === "guerrero" ? `Guerrero's method, windows of ${window}` : `maximum likelihood (too short for Guerrero's windows of ${window})`;
   const gaps = interiorGaps.length
     ? ` ${interiorGaps.length} blank${interiorGaps.length > 1 ? "s" : ""} inside the series (at ${listPositions(interiorGaps.map((p) => where(p - 1)))}): fill ${interiorGaps.length > 1 ? "them" : "it"} before forecasting.`
     : "";
+  let lambda: LambdaChoice;
+  try {
+    lambda = fitLambdaForModel(numbers, { period, label });
+  } catch (e) {
+    if (!isEngineError(e)) throw e;
+    return { ...base, boxCoxUsable: true, suggestedLambda: null, lambda: null, fix: interiorGaps.length ? "fill-gaps" : "too-short", shift: null, message: `${e.message}${gaps}${textNote}` };
+  }
+  const how = `the rule lambda "auto" uses: readable λ and smoothing form chosen together by AICc on the original scale`;
   const lead = leadingBlanks ? ` ${leadingBlanks} leading blank${leadingBlanks > 1 ? "s" : ""} skipped.` : "";
   return {
     ...base,
     boxCoxUsable: true,
-    suggestedLambda: lambda.readable,
+    suggestedLambda: lambda.lambda,
     lambda,
     fix: interiorGaps.length ? "fill-gaps" : "none",
     shift: null,
-    message: `Box-Cox ready. Suggested λ = ${fmt(lambda.readable)} (estimate ${fmt(lambda.lambda)} by ${how}).${lead}${gaps}${textNote}`,
+    message: `Box-Cox ready. Suggested λ = ${fmt(lambda.lambda)} (${how}).${lead}${gaps}${textNote}`,
   };
 }
 
