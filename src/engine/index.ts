@@ -49,7 +49,7 @@ export { requireLevelPercent as checkLevelPercent, requireLambda as checkLambda 
 export { METHODS, SMOOTHING, parseMethod, isBenchmark } from "./models/methods";
 export type { MethodName, SmoothingMethod, BenchmarkMethod } from "./models/methods";
 export type { FittedModel, StepMoments } from "./models/types";
-export { fitSmoothing, smoothingWithParams, parameterCount, minimumLength } from "./models/ets";
+export { fitSmoothing, smoothingWithParams, smoothingAtParams, parameterCount, minimumLength, SMOOTH_LO, SMOOTH_HI, PHI_LO, PHI_HI } from "./models/ets";
 export type { Smoothing, InitialStates } from "./models/ets";
 export { fitBenchmark } from "./models/benchmarks";
 export { fitAuto } from "./models/select";
