@@ -69,7 +69,7 @@ export interface SeriesFit {
 }
 
 /**
- * Fits every series of the file with --method, --lambda and --period; a series that cannot be
+ * Fits every series of the file with --method, --lambda, --transform, --shift and --period; a series that cannot be
  * fitted keeps its message.
  * @example fitAll(parsed, data)[0].f?.method // "holt-winters"
  */
@@ -77,15 +77,18 @@ export function fitAll(p: ParsedArgs, data: CsvSeries): SeriesFit[] {
   const period = p.int("period") ?? 1;
   const method = p.text("method");
   const lambdaFlag = p.text("lambda");
+  const transform = p.has("transform") ? p.choice("transform") : undefined;
+  const shift = p.text("shift");
   return data.names.map((name, j) => {
     try {
       const cells = data.column(j);
       const lambda = lambdaFlag === undefined ? "auto" : lambdaFlag;
-      if (lambda.toLowerCase() !== "none") {
+      if (lambda.toLowerCase() !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined) {
+        // Say where the first value ≤ 0 is, by the file's line, and what works.
         const screen = screenSeries(cells, { period, label: name, where: lineOf(data) });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
-      const f = fitForecast(cells, { method: method === undefined ? "auto" : method, lambda, period, label: name });
+      const f = fitForecast(cells, { method: method === undefined ? "auto" : method, lambda, transform, shift, period, label: name });
       return { name, f };
     } catch (e) {
       return { name, error: atLines(errorMessage(e), data) };

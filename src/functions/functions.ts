@@ -6,7 +6,8 @@ import {
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
 import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
-import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs } from "./coerce";
+import { fitLambdaForModel, MEAN_METHODS, TRANSFORMS, parseShift } from "../engine";
+import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs, readShift } from "./coerce";
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
 import { elementwise, finiteTable } from "./shape";
@@ -84,11 +85,11 @@ export function YEOJOHNSONINV(values: any[][], lambda: number): any[][] {
 }
 
 /**
- * Chooses the Box-Cox λ for each series: λ, its 95% likelihood interval (low, high), and a readable λ.
+ * Chooses the Box-Cox λ for each series: λ, the 95% likelihood interval that belongs to it (low, high), and a readable λ. By default the λ that FW.FAN with lambda "auto" uses.
  * @customfunction FITLAMBDA
  * @helpurl https://localhost:3000/README.html#fwfitlambda
  * @param {any[][]} values The series: one per column (a header row of names is allowed). Positive numbers.
- * @param {string} [method] "guerrero" (default) or "mle" (maximum likelihood).
+ * @param {string} [method] "auto" (default: the λ forecasts with lambda "auto" use, with the chosen model's likelihood interval), "model" (the forecasting model's own maximum-likelihood λ), "guerrero" (no likelihood interval) or "mle" (i.i.d. maximum likelihood).
  * @param {number} [period] Season length: 12 for monthly, 4 for quarterly, 1 for none (default 1). Guerrero's window is the period, or 2 when it is 1.
  * @param {number} [lower] Lowest λ to consider. Default -1.
  * @param {number} [upper] Highest λ to consider. Default 2.
@@ -96,7 +97,7 @@ export function YEOJOHNSONINV(values: any[][], lambda: number): any[][] {
  */
 export function FITLAMBDA(values: any[][], method?: string, period?: number, lower?: number, upper?: number): any[][] {
   return guard(() => {
-    const m = optionalKeyword(method, "method", ["guerrero", "mle"] as const, "guerrero");
+    const m = optionalKeyword(method, "method", ["auto", "model", "guerrero", "mle"] as const, "auto");
     const p = optionalInteger(period, "period", 1, 1);
     const lo = optionalNumber(lower, "lower", -1);
     const hi = optionalNumber(upper, "upper", 2);
@@ -104,8 +105,11 @@ export function FITLAMBDA(values: any[][], method?: string, period?: number, low
     return finiteTable(s.series.map((cells, j) => {
       try {
         const clean = cleanSeries(cells, s.names[j], 1 + s.headerRows);
-        const r = fitLambda(clean.values, { method: m, period: p, lower: lo, upper: hi, label: s.names[j] });
-        return [r.lambda, r.interval[0] ?? naCell("The likelihood interval has no lower end within 10 of λ."), r.interval[1] ?? naCell("The likelihood interval has no upper end within 10 of λ."), r.readable];
+        const r = m === "auto" || m === "model"
+          ? fitLambdaForModel(clean.values, { period: p, label: s.names[j], lambdaMethod: m })
+          : fitLambda(clean.values, { method: m, period: p, lower: lo, upper: hi, label: s.names[j] });
+        const none = m === "guerrero" ? "Guerrero's method has no likelihood, so no likelihood interval belongs to its λ; use method \"mle\" or \"model\" for one." : null;
+        return [r.lambda, r.interval[0] ?? naCell(none ?? "The likelihood interval is open at the low end (the likelihood does not fall far enough)."), r.interval[1] ?? naCell(none ?? "The likelihood interval is open at the high end (the likelihood does not fall far enough)."), r.readable];
       } catch (e) {
         const err = toExcelError(e);
         return [err, err, err, err];
@@ -150,13 +154,13 @@ export function SCREEN(values: any[][], period?: number): any[][] {
  * @param {any[][]} mu Mean on the transformed scale (a cell or a range).
  * @param {any[][]} sd Standard deviation on the transformed scale, > 0 (a cell or a range the size of mu).
  * @param {number} lambda The Box-Cox λ of the forecast's scale (0 = log).
- * @param {string} [method] "taylor" (default, second-order approximation) or "exact" (integral; not defined for λ < 0).
+ * @param {string} [method] "auto" (default: exact where it exists, λ ≥ 0; Taylor for λ < 0), "exact" (integral; not defined for λ < 0) or "taylor" (second-order approximation).
  * @returns {any[][]} The mean on the original scale, same shape as mu.
  */
 export function BTMEAN(mu: any[][], sd: any[][], lambda: number, method?: string): any[][] {
   return guard(() => {
     const l = checkLambda(requiredNumber(lambda, "lambda"));
-    const m = optionalKeyword(method, "method", ["taylor", "exact"] as const, "taylor");
+    const m = optionalKeyword(method, "method", MEAN_METHODS, "auto");
     return elementwise([{ name: "mu", cells: readMatrix(mu, "mu") }, { name: "sd", cells: readMatrix(sd, "sd") }], (a, b) => backtransformMean(a, b, l, m));
   });
 }
@@ -195,7 +199,7 @@ export function BTQUANTILE(mu: any[][], sd: any[][], lambda: number, p: any[][])
  * @param {any[][]} upper The interval's upper end, same shape as median.
  * @param {number} level The interval's coverage in percent, e.g. 80 or 95.
  * @param {number} [lambda] The Box-Cox λ the forecast was made on. Default 0 (log).
- * @param {string} [method] "taylor" (default) or "exact".
+ * @param {string} [method] "auto" (default: exact where it exists, λ ≥ 0; Taylor for λ < 0), "exact" or "taylor".
  * @returns {any[][]} The mean on the original scale, same shape as median.
  */
 export function MEANFROMINTERVAL(median: any[][], lower: any[][], upper: any[][], level: number, lambda?: number, method?: string): any[][] {
@@ -203,7 +207,7 @@ export function MEANFROMINTERVAL(median: any[][], lower: any[][], upper: any[][]
     const lv = requiredNumber(level, "level");
     checkLevelPercent(lv);
     const l = checkLambda(optionalNumber(lambda, "lambda", 0));
-    const m = optionalKeyword(method, "method", ["taylor", "exact"] as const, "taylor");
+    const m = optionalKeyword(method, "method", MEAN_METHODS, "auto");
     return elementwise([
       { name: "median", cells: readMatrix(median, "median") },
       { name: "lower", cells: readMatrix(lower, "lower") },
@@ -254,12 +258,13 @@ function cell(m: Maybe): number | CustomFunctions.Error {
   return naCell(m.note ?? "This value does not exist.");
 }
 
-interface SeriesArgs { method: string; lambda: string | number; period: number }
+interface SeriesArgs { method: string; lambda: string | number; period: number; transform: string; shift: number | "auto" }
 
-function forecastArgs(method: unknown, lambda: unknown, period: unknown): SeriesArgs {
+function forecastArgs(method: unknown, lambda: unknown, period: unknown, transform?: unknown, shift?: unknown): SeriesArgs {
   // ARIMA orders are free text in the project's syntax ("arima:0,1,1/0,1,1"); the rest are keywords.
   const m = typeof method === "string" && isArimaMethod(method) ? parseMethod(method) : optionalKeyword(method, "method", METHODS, "auto");
-  return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1) };
+  const t = optionalKeyword(transform, "transform", TRANSFORMS, "box-cox");
+  return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1), transform: t, shift: parseShift(readShift(shift)) };
 }
 
 async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T): Promise<{ names: string[]; results: T[] }> {
@@ -268,7 +273,7 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
   for (let j = 0; j < s.series.length; j++) {
     if (j > 0) await yieldToHost();
     try {
-      const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
+      const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, transform: args.transform, shift: args.shift, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
       results.push(f(fc, s.names[j]));
     } catch (e) {
       if (e instanceof EngineError && /^horizon|^levels|^each level|^probs|^each probability/.test(e.message)) throw e;
@@ -285,21 +290,25 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), oldest first, positive numbers.
  * @param {number} horizon How many periods ahead to forecast (a whole number, e.g. 12).
  * @param {string} [method] "auto" (default: lowest AICc among the smoothing models), "naive", "drift", "seasonal-naive", "mean", "ses", "holt", "damped", "seasonal-ses", "holt-winters", "damped-holt-winters", "arima" (automatic seasonal ARIMA) or an ARIMA order such as "arima:0,1,1" or "arima:0,1,1/0,1,1".
- * @param {any} [lambda] Box-Cox λ: a number (0 = log), "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number (0 = log), "auto" (default: readable λ and model chosen together by AICc), "model", "guerrero", "mle" or "none".
  * @param {any[][]} [levels] Interval levels in percent: a range of numbers or text like "80,95" (default 80 and 95).
  * @param {number} [period] Season length: 12 for monthly, 4 for quarterly, 1 for none (default 1).
  * @param {boolean} [header] TRUE adds a header row naming the columns (default FALSE: numbers only).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
+ * @param {string} [mean] "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
  * @returns One row per step: step, then per series mean, median, low and high for each level.
  */
-export async function FAN(values: any[][], horizon: number, method?: string, lambda?: any, levels?: any[][], period?: number, header?: boolean): Promise<any[][]> {
+export async function FAN(values: any[][], horizon: number, method?: string, lambda?: any, levels?: any[][], period?: number, header?: boolean, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
+    const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
     const lv = parseLevels(readLevels(levels));
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const withHeader = optionalBoolean(header, "header", false);
     const width = 2 + 2 * lv.length;
     const { names, results } = await eachSeries(values, args, (fc) => {
-      const t = fanTable(fc, h, { levels: lv });
+      const t = fanTable(fc, h, { levels: lv, mean: meanMethod });
       return t.rows.map((r) => [cell(r.mean), cell(r.median), ...lv.flatMap((l) => [cell(r.intervals[String(l)][0]), cell(r.intervals[String(l)][1])])]);
     }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)));
     const H = results[0].length;
@@ -324,13 +333,15 @@ function checkHorizonSafe(h: number): number {
  * @param {number} horizon How many periods ahead (a whole number).
  * @param {any[][]} probs Probabilities strictly between 0 and 1, e.g. 0.1, 0.5, 0.9 (a cell or a row).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [period] Season length (default 1).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
  * @returns horizon rows × (probabilities × series) columns.
  */
-export async function QUANTILES(values: any[][], horizon: number, probs: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+export async function QUANTILES(values: any[][], horizon: number, probs: any[][], method?: string, lambda?: any, period?: number, transform?: string, shift?: any): Promise<any[][]> {
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
     const ps = readProbs(probs);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const { results } = await eachSeries(values, args, (fc) => quantileTable(fc, h, ps).map((row) => row.map(cell)),
@@ -347,21 +358,28 @@ export async function QUANTILES(values: any[][], horizon: number, probs: any[][]
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {number} horizon Number of periods to add up (e.g. 12 for a year of months).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
  * @param {number} [seed] Seed of the simulation, a whole number (default 1): the same seed gives the same answer on every recalculation.
+ * @param {number} [from] First step of the window to add up (default 1).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
+ * @param {string} [mean] "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
  * @returns One row per series: mean, median, low, high.
  */
-export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number): Promise<any[][]> {
+export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
+    const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
+    const first = optionalInteger(from, "from", 1, 1);
+    if (first !== 1) throw new EngineError("input", "from (a window that starts after step 1) is not available in this build; leave it empty to add up steps 1 to horizon.");
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const sd = optionalInteger(seed, "seed", 1, 0);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const { results } = await eachSeries(values, args, (fc) => {
-      const t = totalForecast(fc, h, { level: lv, seed: sd });
+      const t = totalForecast(fc, h, { level: lv, seed: sd, mean: meanMethod });
       return [cell(t.mean), t.median, t.interval[0], t.interval[1] ?? naCell("The total's upper end is unbounded at this λ.")];
     }, (err) => [err, err, err, err]);
     return finiteTable(results);
@@ -369,18 +387,20 @@ export async function TOTAL(values: any[][], horizon: number, method?: string, l
 }
 
 /**
- * Describes the fitted model: method, λ, parameters, σ, log-likelihood, AICc and n (a label column, then one column per series).
+ * Describes the fitted model: method, transform, λ (with its interval), parameters, σ, log-likelihood and AICc on the original scale, n, and which mean is shown and how accurate it is (a label column, then one column per series).
  * @customfunction MODELINFO
  * @helpurl https://localhost:3000/README.html#fwmodelinfo
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [period] Season length (default 1).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
  * @returns Two columns (label, value) for one series; one more value column per extra series.
  */
-export async function MODELINFO(values: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+export async function MODELINFO(values: any[][], method?: string, lambda?: any, period?: number, transform?: string, shift?: any): Promise<any[][]> {
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
     const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]]);
     // Union of labels in first-seen order; a series without a label gets a blank.
     const labels: string[] = [];
@@ -468,22 +488,26 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
  * @param {any[][]} values The history, oldest first, one column (a header cell is allowed).
  * @param {number} horizon Steps ahead to check (a whole number).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
  * @param {number} [first] Length of the first fitting window (default: the smallest the method needs, or the latest 500 origins of a long series).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
+ * @param {string} [mean] The mean scored: "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
  * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median.
  */
-export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number): Promise<any[][]> {
+export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
+    const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const f = first === null || first === undefined ? undefined : optionalInteger(first, "first", 2, 2);
     const s = readSeries(values);
     if (s.series.length !== 1) throw new EngineError("input", `FW.BACKTEST checks one series at a time; the range has ${s.series.length} columns.`);
-    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, yieldToHost);
+    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, transform: args.transform, shift: args.shift, mean: meanMethod, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, yieldToHost);
     return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? ""]));
   });
 }

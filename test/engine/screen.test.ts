@@ -2,7 +2,7 @@
 // λ lambda "auto" uses (models/lambda-choice.ts; checked in lambda-model.test.ts).
 import { cleanSeries, screenSeries } from "../../src/engine";
 import { fitForecast } from "../../src/engine";
-import { check, dataset, expectClose } from "../helpers/reference";
+import { dataset } from "../helpers/reference";
 
 describe("screenSeries counts what a user needs to know", () => {
   test("numbers, blanks (leading, trailing, interior), text, minimum and values ≤ 0", () => {

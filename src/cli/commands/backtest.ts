@@ -16,6 +16,9 @@ export const backtestCommand: Command = {
     level: COMMON.level,
     period: COMMON.period,
     first: { type: { kind: "int", min: 2 }, value: "N", help: "length of the first fitting window", example: "24" },
+    transform: COMMON.transform,
+    shift: COMMON.shift,
+    mean: COMMON.mean,
     json: COMMON.json,
   },
   examples: ["fanwise backtest sales.csv --horizon 3 --period 12"],
@@ -27,7 +30,7 @@ export const backtestCommand: Command = {
     const data = readSeriesFile(p);
     const results = data.names.map((_, j) => {
       try {
-        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", level, period, first, label: data.names[j] }) };
+        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", transform: p.choice("transform"), shift: p.text("shift"), mean: p.choice("mean") ?? "auto", level, period, first, label: data.names[j] }) };
       } catch (e) {
         if (isEngineError(e) && /^horizon|must be a percentage|is in percent/.test(e.message)) throw e;
         return { name: data.names[j], error: errorMessage(e) };

@@ -12,6 +12,8 @@ export const FAN_OPTIONS = {
   levels: { type: { kind: "text" as const }, value: "80,95", help: "interval levels in percent", example: "80,95", default: "80,95" },
   period: COMMON.period,
   mean: COMMON.mean,
+  transform: COMMON.transform,
+  shift: COMMON.shift,
 };
 
 /**
@@ -39,10 +41,15 @@ export const fanCommand: Command = {
   examples: ["fanwise fan sales.csv --horizon 12 --period 12", "fanwise fan sales.csv --horizon 6 --method drift --lambda 0 --levels 50,80,95 --json"],
   run(p, io) {
     const H = p.int("horizon") as number;
-    const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
+    const mean = p.choice("mean") ?? "auto";
     const levels = p.text("levels");
     const data = readSeriesFile(p);
-    const tables: { name: string; table?: FanTable; error?: string }[] = fitAll(p, data).map((x) => {
+    const fits = fitAll(p, data);
+    const x0 = (name: string): unknown => {
+      const f = fits.find((x) => x.name === name)?.f;
+      return f ? { kind: f.transform.kind, lambda: f.transform.lambda, shift: f.transform.shift } : null;
+    };
+    const tables: { name: string; table?: FanTable; error?: string }[] = fits.map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
         return { name: x.name, table: fanTable(x.f, H, { levels, mean }) };
@@ -61,11 +68,13 @@ export const fanCommand: Command = {
           series[t.name] = {
             method: tb.method,
             lambda: tb.lambda,
+            transform: x0(t.name),
             sigma: tb.sigma,
             meanMethod: tb.meanMethod,
             steps: tb.rows.map((r) => ({
               h: r.h,
               mean: val(r.mean),
+              meanUsed: r.meanDetail.used,
               median: val(r.median),
               intervals: Object.fromEntries(Object.entries(r.intervals).map(([k, v]) => [k, [val(v[0]), val(v[1])]])),
               ...(cellNotes(r).length ? { notes: cellNotes(r) } : {}),

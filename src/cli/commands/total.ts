@@ -18,6 +18,8 @@ export const totalCommand: Command = {
     seed: { type: { kind: "int", min: 0 }, value: "S", help: "seed of the simulated paths (same seed, same result)", example: "7", default: "1" },
     paths: { type: { kind: "int", min: 100 }, value: "P", help: "number of simulated paths", example: "20000", default: "10000" },
     mean: COMMON.mean,
+    transform: COMMON.transform,
+    shift: COMMON.shift,
     json: COMMON.json,
   },
   examples: ["fanwise total sales.csv --horizon 12 --period 12", "fanwise total sales.csv --horizon 12 --level 80 --seed 7 --json"],
@@ -26,12 +28,12 @@ export const totalCommand: Command = {
     const level = p.num("level") ?? 95;
     const seed = p.int("seed") ?? 1;
     const paths = p.int("paths") ?? 10000;
-    const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
+    const mean = p.choice("mean") ?? "auto";
     const data = readSeriesFile(p);
     const results = fitAll(p, data).map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
-        return { name: x.name, method: x.f.method, lambda: x.f.lambda, t: totalForecast(x.f, H, { level, seed, paths, mean }) };
+        return { name: x.name, method: x.f.method, lambda: x.f.lambda, transform: x.f.transform, t: totalForecast(x.f, H, { level, seed, paths, mean }) };
       } catch (e) {
         if (isEngineError(e) && e.code === "input" && /horizon|level|paths|seed/.test(e.message)) throw e;
         return { name: x.name, error: errorMessage(e) };
@@ -44,7 +46,8 @@ export const totalCommand: Command = {
           if (!("t" in r) || !r.t) { series[r.name] = { error: r.error }; continue; }
           series[r.name] = {
             method: r.method, lambda: r.lambda, horizon: r.t.horizon,
-            mean: r.t.mean.value, median: r.t.median, interval: r.t.interval, level: r.t.level,
+            transform: { kind: r.transform.kind, lambda: r.transform.lambda, shift: r.transform.shift },
+            mean: r.t.mean.value, meanUsed: r.t.meanUsed, median: r.t.median, interval: r.t.interval, level: r.t.level,
             paths: r.t.paths, seed: r.t.seed, simulatedMean: r.t.simulatedMean, monteCarloError: r.t.monteCarloError,
             notes: [...(r.t.mean.note ? [r.t.mean.note] : []), ...r.t.notes],
           };

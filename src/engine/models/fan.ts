@@ -1,6 +1,6 @@
 // Forecasts back on the original scale: the fan table (mean, median, interval ends per step),
 // arbitrary quantiles, totals over a horizon, and a model description (METHODS §4).
-import { EngineError, isEngineError } from "../errors";
+import { EngineError } from "../errors";
 import { fmt, requireLevelPercent, requireProbability } from "../_lib/check";
 import type { MeanMethod } from "../distribution/backtransform";
 import { forecastMean, MeanResult, parseMeanMethod } from "../distribution/mean";
