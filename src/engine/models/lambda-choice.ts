@@ -8,6 +8,7 @@ import { findRoot, minimizeBounded } from "../_lib/brent";
 import { chiSquareQuantile } from "../distribution/chisquare";
 import type { LambdaChoice } from "../transform/fit-lambda";
 import { READABLE_LAMBDAS } from "../transform/readable";
+import { requirePositiveSeries } from "../series/positive";
 import { boundHit } from "../transform/bounds";
 import { logJacobian, makeTransform, TransformKind, TransformSpec, transformForward } from "../transform/spec";
 import { fitBenchmark } from "./benchmarks";
@@ -134,6 +135,7 @@ export function chooseLambdaAuto(y: readonly number[], options: ModelLambdaOptio
   const period = options.period ?? 1;
   const level = options.level ?? 0.95;
   const label = options.label ?? "the series";
+  if (kind === "box-cox") requirePositiveSeries(shift ? y.map((v) => v + shift) : y, 1, label, "a Box-Cox forecast");
   type Entry = { lambda: number; t: TransformSpec; model: FittedModel; auto: AutoChoice | null; fit: OriginalScaleFit };
   let best: Entry | null = null;
   const candidates: LambdaCandidate[] = [];
