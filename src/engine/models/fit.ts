@@ -176,6 +176,7 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   let lambdaSource: Forecaster["lambdaSource"] = "none";
   let lambdaChoice: LambdaChoice | null = null;
   let chosen: { model: FittedModel; auto: AutoChoice | null } | null = null;
+  let autoForm: Exclude<MethodName, "auto"> | null = null;
   const constantY = isConstant(y);
   if (kind !== "none") {
     if (typeof lambdaSpec === "number") {
@@ -201,7 +202,9 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
       const a = chooseLambdaAuto(y, { kind, shift, method: requestedMethod, period, label });
       if (lambdaSpec === "auto") {
         transform = a.transform;
-        chosen = { model: a.model, auto: a.auto };
+        // On a very long series λ was chosen on the latest values; the model is then fitted to all of them.
+        chosen = a.model.n === y.length ? { model: a.model, auto: a.auto } : null;
+        autoForm = a.model.method;
         lambdaSource = "auto";
         lambdaChoice = { lambda: a.lambda, method: "auto", interval: [null, null], level: 0.95, readable: a.lambda, loglik: a.fit.loglik, bounds: [-1, 1], onBound: null, window: null, n: y.length, note: a.note };
         notes.push(a.note);
@@ -240,6 +243,9 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   if (chosen) {
     model = chosen.model;
     auto = chosen.auto;
+  } else if (requestedMethod === "auto" && autoForm !== null) {
+    // λ and the form were chosen together (on the latest values): fit that form to the whole series.
+    model = fitSmoothing(w, autoForm as SmoothingMethod, period);
   } else if (requestedMethod === "auto") {
     auto = fitAuto(w, period);
     model = auto.model;

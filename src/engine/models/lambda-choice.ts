@@ -21,6 +21,21 @@ import { fitAuto } from "./select";
 import type { AutoChoice } from "./select";
 import type { FittedModel } from "./types";
 
+/**
+ * λ is chosen on at most this many of the latest values (each candidate is a full model fit; on a
+ * longer series the choice would take minutes). The note says so when it applies (common practice:
+ * the recent past is what the forecast continues).
+ */
+export const LAMBDA_CHOICE_MAX = 2000;
+
+function recent(y: readonly number[]): readonly number[] {
+  return y.length > LAMBDA_CHOICE_MAX ? y.slice(y.length - LAMBDA_CHOICE_MAX) : y;
+}
+
+function sampleNote(n: number): string {
+  return n > LAMBDA_CHOICE_MAX ? ` λ was chosen on the latest ${LAMBDA_CHOICE_MAX.toLocaleString("en-US")} of ${n.toLocaleString("en-US")} values.` : "";
+}
+
 /** A model's fit on the original scale. */
 export interface OriginalScaleFit {
   /** ℓ(y) = ℓ(w) + Σ ln|g′(y_t)| over the observations the likelihood covers. */
@@ -122,13 +137,14 @@ export interface ModelLambdaOptions {
 }
 
 /**
- * The `auto` λ rule: every readable λ (1, ½, ⅓, 0, −½, −1) with every smoothing form that fits (or
+ * The `auto` λ rule (on the latest LAMBDA_CHOICE_MAX values at most): every readable λ (1, ½, ⅓, 0, −½, −1) with every smoothing form that fits (or
  * with the given method), compared by AICc on the original scale (METHODS §7), lowest wins. The
  * winner is then held to the chosen form's own likelihood: if the likelihood-ratio test at `level`
  * rejects it against the profile maximum (Box & Cox 1964), the maximum itself is used and said.
  * @example chooseLambdaAuto(air, { period: 12 }).lambda // 0 (with holt-winters)
  */
-export function chooseLambdaAuto(y: readonly number[], options: ModelLambdaOptions = {}): LambdaAuto {
+export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOptions = {}): LambdaAuto {
+  const y = recent(yAll);
   const kind = options.kind ?? "box-cox";
   const shift = options.shift ?? 0;
   const method = options.method ?? "auto";
@@ -227,7 +243,7 @@ export function chooseLambdaAuto(y: readonly number[], options: ModelLambdaOptio
   if (llMax - best.fit.loglik <= cut) {
     return {
       lambda: best.lambda, transform: best.t, model: best.model, auto: best.auto, fit: best.fit, candidates, margin, usedMaximum: false,
-      note: `auto: ${how} by AICc on the original scale among λ = 1, ½, ⅓, 0, −½, −1${perLambda.length > 1 ? ` (${margin.toFixed(1)} below the next λ)` : ""}.`,
+      note: `auto: ${how} by AICc on the original scale among λ = 1, ½, ⅓, 0, −½, −1${perLambda.length > 1 ? ` (${margin.toFixed(1)} below the next λ)` : ""}.${sampleNote(yAll.length)}`,
     };
   }
   // No readable λ is supported: use the form's own maximum-likelihood λ.
@@ -238,7 +254,7 @@ export function chooseLambdaAuto(y: readonly number[], options: ModelLambdaOptio
   const edge = lamMax <= lo + 1e-3 || lamMax >= hi - 1e-3 ? ` It lies at the end of the search (${fmt(lo)} to ${fmt(hi)}); give λ = "model" to search wider.` : "";
   return {
     lambda: lamMax, transform: t, model, auto: method === "auto" ? { ...(best.auto as AutoChoice), model } : null, fit, candidates, margin, usedMaximum: true,
-    note: `auto: the likelihood of ${form} rejects every readable λ (best ${fmt(best.lambda)}), so its own maximum λ = ${fmt(lamMax)} is used.${edge}`,
+    note: `auto: the likelihood of ${form} rejects every readable λ (best ${fmt(best.lambda)}), so its own maximum λ = ${fmt(lamMax)} is used.${edge}${sampleNote(yAll.length)}`,
   };
 }
 
@@ -264,7 +280,8 @@ export interface ModelLambda {
  * reported open (null).
  * @example profileModelLambda(air, "holt-winters", { period: 12 }).interval // contains λ̂
  */
-export function profileModelLambda(y: readonly number[], method: Exclude<MethodName, "auto">, options: ModelLambdaOptions & { lower?: number; upper?: number } = {}): ModelLambda {
+export function profileModelLambda(yAll: readonly number[], method: Exclude<MethodName, "auto">, options: ModelLambdaOptions & { lower?: number; upper?: number } = {}): ModelLambda {
+  const y = recent(yAll);
   const kind = options.kind ?? "box-cox";
   const shift = options.shift ?? 0;
   const period = options.period ?? 1;
@@ -321,7 +338,7 @@ export function profileModelLambda(y: readonly number[], method: Exclude<MethodN
   const notes: string[] = [];
   if (hit) notes.push(`λ̂ sits on the ${hit} end of the widest search (${fmt(bounds[hit === "lower" ? 0 : 1])}); the likelihood may keep rising beyond it.`);
   if (interval[0] === null || interval[1] === null) notes.push(`The ${Math.round(level * 100)}% interval is open at the ${interval[0] === null ? "low" : "high"} end: the likelihood does not fall far enough within λ = ${interval[0] === null ? -5 : 5}.`);
-  return { lambda: best.x, loglik: best.f, interval, level, bounds, onBound: hit, method, note: notes.join(" ") };
+  return { lambda: best.x, loglik: best.f, interval, level, bounds, onBound: hit, method, note: (notes.join(" ") + sampleNote(yAll.length)).trim() };
 }
 
 /**

@@ -1,7 +1,7 @@
 import { EngineError, isEngineError } from "../errors";
 import { fmt } from "../_lib/check";
 import type { LambdaChoice } from "../transform/fit-lambda";
-import { fitLambdaForModel } from "../models/lambda-choice";
+import { fitLambdaForModel, LAMBDA_CHOICE_MAX } from "../models/lambda-choice";
 import { autoShift } from "../transform/shift";
 import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
 import { isBlank, cap } from "../_lib/cells";
@@ -123,7 +123,7 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
     if (!isEngineError(e)) throw e;
     return { ...base, boxCoxUsable: true, suggestedLambda: null, lambda: null, fix: interiorGaps.length ? "fill-gaps" : "too-short", shift: null, message: `${e.message}${gaps}${textNote}` };
   }
-  const how = `the rule lambda "auto" uses: readable λ and smoothing form chosen together by AICc on the original scale`;
+  const how = `the rule lambda "auto" uses: readable λ and smoothing form chosen together by AICc on the original scale${numbers.length > LAMBDA_CHOICE_MAX ? `, on the latest ${LAMBDA_CHOICE_MAX.toLocaleString("en-US")} values` : ""}`;
   const lead = leadingBlanks ? ` ${leadingBlanks} leading blank${leadingBlanks > 1 ? "s" : ""} skipped.` : "";
   return {
     ...base,
