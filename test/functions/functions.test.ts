@@ -96,9 +96,11 @@ describe("FW.SCREEN", () => {
 
 describe("FW.BTMEAN / FW.BTQUANTILE (source: scipy 1.10.1 backtransform.grid)", () => {
   const e = check("backtransform.grid").expected.find((x: { lmbda: number; mu: number; sigma: number }) => x.lmbda === 0 && x.mu === 2 && x.sigma === 1);
-  test("Taylor by default, exact on request", () => {
-    expectClose(FW.BTMEAN([[2]], [[1]], 0, null as unknown as string)[0][0] as number, e.mean_taylor, { rtol: 1e-12 }, "taylor");
+  test("exact by default where it exists (λ ≥ 0; issue 12 §1), Taylor on request, Taylor by default for λ < 0", () => {
+    expectClose(FW.BTMEAN([[2]], [[1]], 0, null as unknown as string)[0][0] as number, e.mean_exact_quad, { rtol: 1e-9 }, "default (auto)");
+    expectClose(FW.BTMEAN([[2]], [[1]], 0, "taylor")[0][0] as number, e.mean_taylor, { rtol: 1e-12 }, "taylor");
     expectClose(FW.BTMEAN([[2]], [[1]], 0, "exact")[0][0] as number, e.mean_exact_quad, { rtol: 1e-9 }, "exact");
+    expect(FW.BTMEAN([[1]], [[0.1]], -0.3, null as unknown as string)[0][0]).toBeCloseTo(FW.BTMEAN([[1]], [[0.1]], -0.3, "taylor")[0][0] as number, 12);
   });
   test("the exact mean for λ < 0 is #N/A with the reason", () => {
     expect(isCellError(FW.BTMEAN([[1]], [[0.1]], -0.3, "exact")[0][0], "#N/A", /does not exist/)).toBe(true);

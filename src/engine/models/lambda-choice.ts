@@ -152,6 +152,7 @@ export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOp
   const level = options.level ?? 0.95;
   const label = options.label ?? "the series";
   if (kind === "box-cox") requirePositiveSeries(shift ? y.map((v) => v + shift) : y, 1, label, "a Box-Cox forecast");
+  if (y.length < 4) throw new EngineError("input", `${label} is too short to choose λ (${y.length} value${y.length === 1 ? "" : "s"}; at least 4). Give λ as a number (0 for the log) or "none".`);
   type Entry = { lambda: number; t: TransformSpec; model: FittedModel; auto: AutoChoice | null; fit: OriginalScaleFit };
   let best: Entry | null = null;
   const candidates: LambdaCandidate[] = [];
