@@ -236,13 +236,13 @@ function startGrid(spec: Spec): number[][] {
  * A last local refinement that respects the box: coordinate by coordinate, Brent's method (Brent
  * 1973) on a window of ±0.05 around the point, with the box edge itself tried whenever the window
  * reaches it (Nelder–Mead and Brent both stop a little short of an optimum on a bound); repeated
- * while any coordinate improves (at most 4 rounds). Issue 12 §3: no fit may be beaten by a point
+ * while any coordinate improves (at most 2 rounds). Issue 12 §3: no fit may be beaten by a point
  * inside its own box.
  */
 function refineInBox(obj: (u: number[]) => number, x0: number[], f0: number): { x: number[]; fx: number } {
   let x = x0.slice();
   let fx = f0;
-  for (let round = 0; round < 4; round++) {
+  for (let round = 0; round < 2; round++) {
     let improved = false;
     for (let i = 0; i < x.length; i++) {
       const at = (v: number): number => {
@@ -253,7 +253,7 @@ function refineInBox(obj: (u: number[]) => number, x0: number[], f0: number): { 
       const lo = Math.max(0, x[i] - 0.05);
       const hi = Math.min(1, x[i] + 0.05);
       const tries: { v: number; f: number }[] = [];
-      const r = minimizeBounded(at, lo, hi, 1e-12);
+      const r = minimizeBounded(at, lo, hi, 1e-8);
       tries.push({ v: r.x, f: r.fx });
       if (lo === 0) tries.push({ v: 0, f: at(0) });
       if (hi === 1) tries.push({ v: 1, f: at(1) });
