@@ -220,7 +220,7 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   }
   const lambda = transform.lambda;
   const w = y.map((v) => transformForward(transform, v));
-  if (w.some((v) => !Number.isFinite(v))) throw new EngineError("domain", `The ${describeTransform(transform)} transform overflows on ${label}'s values; use a smaller λ (e.g. 0).`);
+  if (w.some((v, i) => !Number.isFinite(v) && !Number.isNaN(y[i]))) throw new EngineError("domain", `The ${describeTransform(transform)} transform overflows on ${label}'s values; use a smaller λ (e.g. 0).`);
 
   const base = {
     label, requestedMethod, transform, lambda, lambdaSource, lambdaChoice, period, n: y.length,

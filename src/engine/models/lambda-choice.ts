@@ -88,7 +88,9 @@ export function transformSeries(y: readonly number[], t: TransformSpec): number[
   const w = y.map((v) => transformForward(t, v));
   let first: number | null = null;
   let varies = false;
-  for (const v of w) {
+  for (let i = 0; i < w.length; i++) {
+    const v = w[i];
+    if (Number.isNaN(y[i])) continue; // a missing observation stays missing
     if (!Number.isFinite(v)) return null;
     if (first === null) first = v;
     else if (v !== first) varies = true;
@@ -151,7 +153,7 @@ export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOp
   const period = options.period ?? 1;
   const level = options.level ?? 0.95;
   const label = options.label ?? "the series";
-  if (kind === "box-cox") requirePositiveSeries(shift ? y.map((v) => v + shift) : y, 1, label, "a Box-Cox forecast");
+  if (kind === "box-cox") requirePositiveSeries(y.filter((v) => !Number.isNaN(v)).map((v) => v + shift), 1, label, "a Box-Cox forecast");
   if (y.length < 4) throw new EngineError("input", `${label} is too short to choose λ (${y.length} value${y.length === 1 ? "" : "s"}; at least 4). Give λ as a number (0 for the log) or "none".`);
   type Entry = { lambda: number; t: TransformSpec; model: FittedModel; auto: AutoChoice | null; fit: OriginalScaleFit };
   let best: Entry | null = null;
