@@ -9,5 +9,7 @@ module.exports = {
     "^office-addin-manifest$": "<rootDir>/node_modules/office-addin-manifest/lib/officeApp.js",
   },
   testTimeout: 60000,
+  // Recompiles build/ when the sources are newer, so the CLI tests never run a stale build.
+  globalSetup: "<rootDir>/test/helpers/fresh-cli-build.js",
   reporters: ["default", "<rootDir>/test/helpers/summary-reporter.js"],
 };

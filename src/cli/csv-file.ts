@@ -8,9 +8,10 @@ import { CsvColumns, CsvRecordReader, notText } from "./csv";
  * Reads a CSV file in 256 KiB pieces straight into columns; the text is never held whole. UTF-8 (with
  * or without a BOM) is expected; a file that is not valid UTF-8 is read again as Windows-1252 (what
  * older spreadsheet programs export). Throws `input` EngineErrors that say what to fix.
+ * `keepLabels` keeps the text of a first column named like a period (dates for a chart's axis).
  * @example readCsvFile("sales.csv").header // ["month", "Harbour Street", …]
  */
-export function readCsvFile(file: string): CsvColumns {
+export function readCsvFile(file: string, keepLabels = false): CsvColumns {
   let fd: number;
   try {
     fd = fs.openSync(file, "r");
@@ -23,16 +24,16 @@ export function readCsvFile(file: string): CsvColumns {
     throw new EngineError("input", code === "ENOENT" ? `File not found: ${file}` : code === "EISDIR" ? `${file} is a folder, not a CSV file.` : code === "EACCES" ? `No permission to read ${file}.` : `Cannot read ${file} (${code ?? "error"}).`);
   }
   try {
-    const first = readWith(fd, "utf-8");
+    const first = readWith(fd, "utf-8", keepLabels);
     if (first !== "not-utf8") return first;
-    return readWith(fd, "windows-1252") as CsvColumns;
+    return readWith(fd, "windows-1252", keepLabels) as CsvColumns;
   } finally {
     fs.closeSync(fd);
   }
 }
 
-function readWith(fd: number, encoding: "utf-8" | "windows-1252"): CsvColumns | "not-utf8" {
-  const cols = new CsvColumns(false); // the command line names rows by their line, not their label
+function readWith(fd: number, encoding: "utf-8" | "windows-1252", keepLabels: boolean): CsvColumns | "not-utf8" {
+  const cols = new CsvColumns(keepLabels); // the command line names rows by their line, not their label, unless asked
   const reader = new CsvRecordReader((fields, line) => cols.add(fields, line));
   const buf = Buffer.allocUnsafe(1 << 18);
   // fatal: a malformed UTF-8 sequence throws (sequences cut between pieces are joined by stream).

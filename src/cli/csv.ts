@@ -138,8 +138,9 @@ function checkWidth(fields: string[], width: number, line: number): void {
 /**
  * Trims the header's names, refuses a first row that is all numbers (the file has no header), and
  * makes repeated names unique ("sales", "sales (2)") so no column is lost in the JSON output.
+ * @example checkHeader([" month", "sales", "sales"]) // ["month", "sales", "sales (2)"]
  */
-function checkHeader(fields: string[]): string[] {
+export function checkHeader(fields: string[]): string[] {
   const names = fields.map((h) => h.trim());
   if (names.every((h) => typeof fieldToCell(h) === "number")) {
     throw new EngineError("input", `The first row (${names.slice(0, 3).join(",")}${names.length > 3 ? ",…" : ""}) is numbers, not column names. Add a header row naming the columns, e.g. month,sales.`);
@@ -154,7 +155,7 @@ function checkHeader(fields: string[]): string[] {
 }
 
 /** Header names that mark the first column as period labels even when they are numbers (years). */
-const LABEL_NAMES = /^(period|date|month|year|quarter|week|day|time|t)$/i;
+export const LABEL_NAMES = /^(period|date|month|year|quarter|week|day|time|t)$/i;
 
 const GROUPED = /^[-+]?\d{1,3}(,\d{3})+(\.\d+)?$/;
 const PLAIN_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;

@@ -8,8 +8,26 @@ seasonal ARIMA) or an ARIMA order: arima:p,d,q or arima:p,d,q/P,D,Q, +c for a co
 is the random walk with drift).
 Lambda: a number, auto (default), guerrero, mle, or none (no transform).`;
 
-const FILES = `FILE is a CSV whose first row names the columns; lines starting with # are comments; a column of
-labels (dates, periods) is skipped; every other column is a series; blank cells are gaps.`;
+const FILES = `FILE is a CSV whose first row names the columns, or an .xlsx workbook (--sheet NAME, --range B2:H74;
+numbers and dates as the workbook stores them, formulas by their saved results). Lines starting
+with # are comments (CSV); a column of labels (dates, periods) is skipped; every other column is a
+series; blank cells are gaps.`;
+
+const EXIT = `Exit codes: 0 every series computed; 1 nothing computed, or a usage or file error; 3 some series
+failed (their messages are in the output and on stderr).`;
+
+/**
+ * The package's version (package.json beside build/ and src/).
+ * @example version() // "0.1.0"
+ */
+export function version(): string {
+  try {
+    // eslint-disable-next-line @typescript-eslint/no-require-imports
+    return String(require("../../package.json").version);
+  } catch {
+    return "(version unknown)";
+  }
+}
 
 const CAUTION = `Forecasts are estimates from past patterns; check results before committing money, and follow
 your organisation's forecasting and audit policies.`;
@@ -28,15 +46,19 @@ export function usageLine(c: Command, pad = 0): string {
  */
 export function generalHelp(commands: readonly Command[]): string {
   const pad = Math.max(...commands.map((c) => c.name.length));
-  return `fanwise — Box-Cox forecasts with honest means, medians and intervals (CSV in, CSV or JSON out)
+  return `fanwise — Box-Cox forecasts with honest means, medians and intervals (CSV or .xlsx in; CSV, JSON or .xlsx out)
 
 Usage:
 ${commands.map((c) => `  ${usageLine(c, pad)}`).join("\n")}
   fanwise help COMMAND     (or fanwise COMMAND --help): one command's options and examples
+  fanwise --version
 
 ${METHODS}
 
 ${FILES}
+
+${EXIT}
+
 ${CAUTION}
 `;
 }
@@ -58,6 +80,7 @@ export function commandHelp(c: Command): string {
   if (c.details?.length) parts.push("", ...c.details);
   if (c.args.includes("FILE")) parts.push("", FILES);
   if (Object.prototype.hasOwnProperty.call(c.options, "method")) parts.push("", METHODS);
+  if (Object.prototype.hasOwnProperty.call(c.options, "series")) parts.push("", EXIT);
   parts.push("", "Examples:", ...c.examples.map((e) => `  ${e}`), "", CAUTION);
   return parts.join("\n") + "\n";
 }

@@ -5,12 +5,15 @@ import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
-import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
+import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditLog, pinball, backtestAsync, RawCell } from "../engine";
+import { publishedTotal, parseDependence, alignSeries, totalAcross, smearingMean, checkWindowStart, Forecaster } from "../engine";
 import { fitLambdaForModel, MEAN_METHODS, TRANSFORMS, parseShift } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs, readShift } from "./coerce";
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
 import { elementwise, finiteTable } from "./shape";
+import { cancelSignal, CancelSignal, NEVER_CANCELLED, withCancel } from "./cancel";
+import { auditInput, column, rowKey } from "./audit-args";
 
 function guard<T>(f: () => T): T {
   try {
@@ -141,7 +144,7 @@ export function SCREEN(values: any[][], period?: number): any[][] {
     const p = optionalInteger(period, "period", 1, 1);
     const s = readSeries(values);
     return finiteTable(s.series.map((cells, j) => {
-      const r = screenSeries(cells, { period: p, label: s.names[j] });
+      const r = screenSeries(cells, { period: p, label: s.names[j], zerosOption: "leave those cells blank (a blank inside a series is a missing observation)" });
       return [r.n, r.blanks, r.textCells, r.min ?? "", r.nonPositive, r.boxCoxUsable, r.suggestedLambda ?? "", r.message];
     }));
   });
@@ -267,16 +270,17 @@ function forecastArgs(method: unknown, lambda: unknown, period: unknown, transfo
   return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1), transform: t, shift: parseShift(readShift(shift)) };
 }
 
-async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T): Promise<{ names: string[]; results: T[] }> {
+async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T, cancel: CancelSignal = NEVER_CANCELLED): Promise<{ names: string[]; results: T[] }> {
   const s = readSeries(values);
   const results: T[] = [];
+  const pause = withCancel(yieldToHost, cancel);
   for (let j = 0; j < s.series.length; j++) {
-    if (j > 0) await yieldToHost();
+    if (j > 0) await pause();
     try {
       const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, transform: args.transform, shift: args.shift, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
       results.push(f(fc, s.names[j]));
     } catch (e) {
-      if (e instanceof EngineError && /^horizon|^levels|^each level|^probs|^each probability/.test(e.message)) throw e;
+      if (e instanceof EngineError && /^horizon|^levels|^each level|^probs|^each probability|^from /.test(e.message)) throw e;
       results.push(onError(toExcelError(e), s.names[j]));
     }
   }
@@ -287,6 +291,7 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
  * Forecast fan for each series, back on the original scale: step, mean (for budgets), median, and the low and high ends of each interval.
  * @customfunction FAN
  * @helpurl https://localhost:3000/README.html#fwfan
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), oldest first, positive numbers.
  * @param {number} horizon How many periods ahead to forecast (a whole number, e.g. 12).
  * @param {string} [method] "auto" (default: lowest AICc among the smoothing models), "naive", "drift", "seasonal-naive", "mean", "ses", "holt", "damped", "seasonal-ses", "holt-winters", "damped-holt-winters", "arima" (automatic seasonal ARIMA) or an ARIMA order such as "arima:0,1,1" or "arima:0,1,1/0,1,1".
@@ -300,6 +305,8 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
  * @returns One row per step: step, then per series mean, median, low and high for each level.
  */
 export async function FAN(values: any[][], horizon: number, method?: string, lambda?: any, levels?: any[][], period?: number, header?: boolean, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(FAN, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period, transform, shift);
     const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
@@ -310,7 +317,7 @@ export async function FAN(values: any[][], horizon: number, method?: string, lam
     const { names, results } = await eachSeries(values, args, (fc) => {
       const t = fanTable(fc, h, { levels: lv, mean: meanMethod });
       return t.rows.map((r) => [cell(r.mean), cell(r.median), ...lv.flatMap((l) => [cell(r.intervals[String(l)][0]), cell(r.intervals[String(l)][1])])]);
-    }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)));
+    }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)), cancel);
     const H = results[0].length;
     const out: any[][] = [];
     if (withHeader) {
@@ -329,6 +336,7 @@ function checkHorizonSafe(h: number): number {
  * Forecast quantiles on the original scale: one row per step, one column per probability (per series).
  * @customfunction QUANTILES
  * @helpurl https://localhost:3000/README.html#fwquantiles
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {number} horizon How many periods ahead (a whole number).
  * @param {any[][]} probs Probabilities strictly between 0 and 1, e.g. 0.1, 0.5, 0.9 (a cell or a row).
@@ -340,12 +348,14 @@ function checkHorizonSafe(h: number): number {
  * @returns horizon rows × (probabilities × series) columns.
  */
 export async function QUANTILES(values: any[][], horizon: number, probs: any[][], method?: string, lambda?: any, period?: number, transform?: string, shift?: any): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(QUANTILES, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period, transform, shift);
     const ps = readProbs(probs);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const { results } = await eachSeries(values, args, (fc) => quantileTable(fc, h, ps).map((row) => row.map(cell)),
-      (err) => Array.from({ length: Math.min(checkHorizonSafe(h), 1000) }, () => new Array(ps.length).fill(err)));
+      (err) => Array.from({ length: Math.min(checkHorizonSafe(h), 1000) }, () => new Array(ps.length).fill(err)), cancel);
     const H = results[0].length;
     return finiteTable(Array.from({ length: H }, (_, i) => results.flatMap((r) => r[i])));
   });
@@ -355,6 +365,7 @@ export async function QUANTILES(values: any[][], horizon: number, probs: any[][]
  * Forecast of the total over the next periods (e.g. a year's budget from monthly history): mean, median, and the interval's low and high ends.
  * @customfunction TOTAL
  * @helpurl https://localhost:3000/README.html#fwtotal
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {number} horizon Number of periods to add up (e.g. 12 for a year of months).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
@@ -362,26 +373,27 @@ export async function QUANTILES(values: any[][], horizon: number, probs: any[][]
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
  * @param {number} [seed] Seed of the simulation, a whole number (default 1): the same seed gives the same answer on every recalculation.
- * @param {number} [from] First step of the window to add up (default 1).
+ * @param {number} [from] First step of the window to add up (default 1): steps from..horizon are summed, e.g. from 8 and horizon 19 for next January–December after a history ending in May.
  * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
  * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
  * @param {string} [mean] "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
  * @returns One row per series: mean, median, low, high.
  */
 export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(TOTAL, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period, transform, shift);
     const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
-    const first = optionalInteger(from, "from", 1, 1);
-    if (first !== 1) throw new EngineError("input", "from (a window that starts after step 1) is not available in this build; leave it empty to add up steps 1 to horizon.");
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const sd = optionalInteger(seed, "seed", 1, 0);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const start = checkWindowStart(optionalInteger(from, "from", 1, 1), h);
     const { results } = await eachSeries(values, args, (fc) => {
-      const t = totalForecast(fc, h, { level: lv, seed: sd, mean: meanMethod });
+      const t = totalForecast(fc, h, { level: lv, seed: sd, mean: meanMethod, from: start });
       return [cell(t.mean), t.median, t.interval[0], t.interval[1] ?? naCell("The total's upper end is unbounded at this λ.")];
-    }, (err) => [err, err, err, err]);
+    }, (err) => [err, err, err, err], cancel);
     return finiteTable(results);
   });
 }
@@ -390,6 +402,7 @@ export async function TOTAL(values: any[][], horizon: number, method?: string, l
  * Describes the fitted model: method, transform, λ (with its interval), parameters, σ, log-likelihood and AICc on the original scale, n, and which mean is shown and how accurate it is (a label column, then one column per series).
  * @customfunction MODELINFO
  * @helpurl https://localhost:3000/README.html#fwmodelinfo
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
  * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
@@ -399,9 +412,11 @@ export async function TOTAL(values: any[][], horizon: number, method?: string, l
  * @returns Two columns (label, value) for one series; one more value column per extra series.
  */
 export async function MODELINFO(values: any[][], method?: string, lambda?: any, period?: number, transform?: string, shift?: any): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(MODELINFO, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period, transform, shift);
-    const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]]);
+    const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]], cancel);
     // Union of labels in first-seen order; a series without a label gets a blank.
     const labels: string[] = [];
     for (const r of results) for (const [k] of r) if (!labels.includes(k)) labels.push(k);
@@ -409,46 +424,43 @@ export async function MODELINFO(values: any[][], method?: string, lambda?: any, 
   });
 }
 
-function column(v: unknown, name: string): RawCell[] {
-  const m = readMatrix(v, name);
-  if (m.length > 1 && m[0].length > 1) throw new EngineError("input", `${name} must be a single column or a single row; it is ${m.length}×${m[0].length}.`);
-  return m.length === 1 ? m[0] : m.map((r) => r[0]);
-}
-
 /**
- * Checks how often past intervals contained what happened: n, misses, observed coverage, and the Kupiec, independence, conditional-coverage and binomial-tail p-values, with the mean interval score.
+ * Checks how often past intervals contained what happened: n, misses, observed coverage, the Kupiec, independence, conditional-coverage and binomial-tail p-values, the mean interval score, the zone and one verdict. With groups: one row per series plus a pooled row; with horizons: per step ahead; with several levels: per level.
  * @customfunction COVERAGE
  * @helpurl https://localhost:3000/README.html#fwcoverage
  * @param {any[][]} actuals What happened, one per row (blanks are skipped).
- * @param {any[][]} lower The lower ends of the published intervals, same rows.
- * @param {any[][]} upper The upper ends, same rows.
- * @param {number} level The intervals' promised coverage in percent, e.g. 80 or 95.
- * @returns {any[][]} One row: n, misses, observed coverage, Kupiec p, independence p, conditional-coverage p, binomial tail p, mean interval score.
+ * @param {any[][]} lower The lower ends of the published intervals, same rows (one column per level).
+ * @param {any[][]} upper The upper ends, same rows (one column per level).
+ * @param {any} level The promised coverage in percent, e.g. 80; several as "80,95" or a range, one per column of lower and upper.
+ * @param {any[][]} [groups] The series name of each row: one result row per series plus a pooled row "all groups".
+ * @param {any[][]} [horizons] Steps ahead of each row (1, 2, 3, …): results per step; for h > 1 the tests use every h-th origin.
+ * @returns {any[][]} Per row: [group], [step], [level] (each only when used), n, misses, observed coverage, Kupiec p, independence p, conditional-coverage p, binomial tail p, mean interval score, zone, verdict.
  */
-export function COVERAGE(actuals: any[][], lower: any[][], upper: any[][], level: number): any[][] {
+export function COVERAGE(actuals: any[][], lower: any[][], upper: any[][], level: any, groups?: any[][], horizons?: any[][]): any[][] {
   return guard(() => {
-    const lv = requiredNumber(level, "level");
-    checkLevelPercent(lv);
-    const a = auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv);
-    return finiteTable([[a.n, a.misses, a.coverage, a.kupiec.p, a.independence.p, a.conditional.p, a.binomialTail, a.intervalScore]]);
+    const a = auditLog(auditInput(actuals, lower, upper, level, groups, horizons));
+    return finiteTable(a.rows.map((r) => [
+      ...rowKey(a, r), r.n, r.misses, r.coverage, r.kupiec.p, r.independence.p, r.conditional.p, r.binomialTail, r.intervalScore, r.verdict.colour, r.verdict.headline,
+    ]));
   });
 }
 
 /**
- * Mean interval (Winkler) score of past intervals: width plus a penalty for each miss. Lower is better.
+ * Mean interval (Winkler) score of past intervals: width plus a penalty for each miss. Lower is better. With groups, horizons or several levels: one row each (and a pooled row).
  * @customfunction INTERVALSCORE
  * @helpurl https://localhost:3000/README.html#fwintervalscore
  * @param {any[][]} actuals What happened, one per row (blanks are skipped).
- * @param {any[][]} lower The lower ends of the intervals, same rows.
- * @param {any[][]} upper The upper ends, same rows.
- * @param {number} level The intervals' coverage in percent, e.g. 80 or 95.
- * @returns {number} The mean interval score, in the units of the data.
+ * @param {any[][]} lower The lower ends of the intervals, same rows (one column per level).
+ * @param {any[][]} upper The upper ends, same rows (one column per level).
+ * @param {any} level The intervals' coverage in percent, e.g. 80; several as "80,95" or a range.
+ * @param {any[][]} [groups] The series name of each row: one score per series plus the pooled score.
+ * @param {any[][]} [horizons] Steps ahead of each row: one score per step.
+ * @returns {any[][]} The mean interval score in the units of the data; with groups, horizons or several levels, [group], [step], [level] and the score per row.
  */
-export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], level: number): number {
+export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], level: any, groups?: any[][], horizons?: any[][]): any[][] {
   return guard(() => {
-    const lv = requiredNumber(level, "level");
-    checkLevelPercent(lv);
-    return finiteResult(auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv).intervalScore, "The mean interval score");
+    const a = auditLog(auditInput(actuals, lower, upper, level, groups, horizons));
+    return finiteTable(a.rows.map((r) => [...rowKey(a, r), finiteResult(r.intervalScore, "The mean interval score")]));
   });
 }
 
@@ -482,9 +494,10 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
 }
 
 /**
- * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, and the mean error of the mean and of the median.
+ * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, the mean error of the mean and of the median, Kupiec's p-value and a verdict.
  * @customfunction BACKTEST
  * @helpurl https://localhost:3000/README.html#fwbacktest
+ * @cancelable
  * @param {any[][]} values The history, oldest first, one column (a header cell is allowed).
  * @param {number} horizon Steps ahead to check (a whole number).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
@@ -495,9 +508,11 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
  * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
  * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
  * @param {string} [mean] The mean scored: "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
- * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median.
+ * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median, Kupiec p, verdict.
  */
 export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(BACKTEST, arguments);
   return guardAsync(async () => {
     const args = forecastArgs(method, lambda, period, transform, shift);
     const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
@@ -507,7 +522,131 @@ export async function BACKTEST(values: any[][], horizon: number, method?: string
     const f = first === null || first === undefined ? undefined : optionalInteger(first, "first", 2, 2);
     const s = readSeries(values);
     if (s.series.length !== 1) throw new EngineError("input", `FW.BACKTEST checks one series at a time; the range has ${s.series.length} columns.`);
-    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, transform: args.transform, shift: args.shift, mean: meanMethod, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, yieldToHost);
-    return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? ""]));
+    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, transform: args.transform, shift: args.shift, mean: meanMethod, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, withCancel(yieldToHost, cancel));
+    return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? "", r.kupiecP ?? "", r.verdict?.headline ?? ""]));
+  });
+}
+
+/** Reads one column (or row) of published figures; trailing rows blank in every column are dropped. */
+function publishedColumns(medians: unknown, lowers: unknown, uppers: unknown): { m: number[]; l: number[]; u: number[] } {
+  const cols = [column(medians, "medians"), column(lowers, "lowers"), column(uppers, "uppers")];
+  const names = ["medians", "lowers", "uppers"];
+  const blank = (c: RawCell): boolean => c === null || c === undefined || (typeof c === "string" && c.trim() === "");
+  // a header cell of text on top of all three is allowed
+  if (cols.every((c) => typeof c[0] === "string" && !blank(c[0]))) cols.forEach((c, k) => (cols[k] = c.slice(1)));
+  const n = Math.max(...cols.map((c) => c.length));
+  let last = -1;
+  for (let i = 0; i < n; i++) if (cols.some((c) => i < c.length && !blank(c[i]))) last = i;
+  if (last < 0) throw new EngineError("input", "medians, lowers and uppers hold no numbers; select the published forecast's three columns.");
+  const out = cols.map((c, k) => {
+    if (c.length < last + 1) throw new EngineError("input", `medians, lowers and uppers must have one value per month; ${names[k]} has ${c.length} and another has ${last + 1}.`);
+    return c.slice(0, last + 1).map((v, i) => {
+      if (typeof v === "number") return v;
+      if (blank(v)) throw new EngineError("input", `${names[k]} is blank in month ${i + 1}; every month needs a median, a lower and an upper end.`);
+      throw new EngineError("input", `${names[k]} in month ${i + 1} is not a number (${JSON.stringify(String(v)).slice(0, 24)}).`);
+    });
+  });
+  return { m: out[0], l: out[1], u: out[2] };
+}
+
+/**
+ * Total of a forecast published elsewhere as monthly medians and intervals (e.g. next year's budget): mean, median and interval of the total, with the range from independent to perfectly dependent months beside it.
+ * @customfunction TOTALFROMINTERVALS
+ * @helpurl https://localhost:3000/README.html#fwtotalfromintervals
+ * @param {any[][]} medians The published monthly medians (point forecasts), > 0, one per row (a header cell is allowed).
+ * @param {any[][]} lowers The lower ends of the published central intervals, same rows.
+ * @param {any[][]} uppers The upper ends, same rows.
+ * @param {number} level The intervals' coverage in percent (e.g. 80 or 95); the total's interval has the same level.
+ * @param {any} [lambda] The Box-Cox λ the forecast was made on: a number (default 0, the log) or "implied" (from the intervals' asymmetry, as FW.IMPLIEDLAMBDA).
+ * @param {any} [dependence] How the months move together: "implied" (default: from how the intervals widen), "independent", "comonotone" (perfectly together), or a correlation from 0 to 1.
+ * @returns {any[][]} One row: mean, median, low, high of the total; then the low and high under independent months and under comonotone months.
+ */
+export function TOTALFROMINTERVALS(medians: any[][], lowers: any[][], uppers: any[][], level: number, lambda?: any, dependence?: any): any[][] {
+  return guard(() => {
+    const lv = requiredNumber(level, "level");
+    checkLevelPercent(lv);
+    const rawLambda = singleCell(lambda, "lambda");
+    const lam = rawLambda === null || rawLambda === undefined || rawLambda === "" ? 0 : readLambda(rawLambda);
+    const dep = parseDependence(singleCell(dependence, "dependence"));
+    const { m, l, u } = publishedColumns(medians, lowers, uppers);
+    const t = publishedTotal(m, l, u, lv, { lambda: lam, dependence: dep });
+    const unbounded = naCell("The total's upper end is unbounded at this λ (past its pole).");
+    return finiteTable([[
+      t.mean ?? naCell(t.notes.find((n) => /mean/.test(n)) ?? "The total's mean does not exist."), t.median, t.interval[0], t.interval[1] ?? unbounded,
+      t.independent.interval[0], t.independent.interval[1] ?? unbounded, t.comonotone.interval[0], t.comonotone.interval[1] ?? unbounded,
+    ]]);
+  });
+}
+
+function singleCell(v: unknown, name: string): unknown {
+  if (!Array.isArray(v)) return v;
+  if (v.length === 1 && Array.isArray(v[0]) && v[0].length === 1) return v[0][0];
+  throw new EngineError("input", `${name} must be a single cell.`);
+}
+
+/**
+ * Company total over several series (one per column) and the next periods: mean, median and interval of the sum, simulated jointly with the series' errors correlated as in their history, and the interval if they were independent.
+ * @customfunction TOTALACROSS
+ * @helpurl https://localhost:3000/README.html#fwtotalacross
+ * @param {any[][]} values The histories: one series per column (at least two; a header row of names is allowed), positive numbers, same rows = same periods.
+ * @param {number} horizon Last step to add up (e.g. 12 for the next year of months).
+ * @param {string} [method] Forecasting method for every series (default "auto"); see FW.FAN.
+ * @param {any} [lambda] Box-Cox λ: a number, "auto" (default, chosen per series), "guerrero", "mle" or "none".
+ * @param {number} [level] Interval level in percent (default 95).
+ * @param {number} [period] Season length (default 1).
+ * @param {number} [seed] Seed of the simulation, a whole number (default 1).
+ * @param {number} [from] First step of the window (default 1): steps from..horizon of every series are summed.
+ * @returns One row: mean, median, low, high of the total; then the low and high if the series moved independently.
+ */
+export async function TOTALACROSS(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number): Promise<any[][]> {
+  return guardAsync(async () => {
+    const args = forecastArgs(method, lambda, period);
+    const lv = optionalNumber(level, "level", 95);
+    checkLevelPercent(lv);
+    const sd = optionalInteger(seed, "seed", 1, 0);
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const start = checkWindowStart(optionalInteger(from, "from", 1, 1), h);
+    const s = readSeries(values);
+    if (s.series.length < 2) throw new EngineError("input", `FW.TOTALACROSS adds up several series, one per column; the range has ${s.series.length}. For one series use FW.TOTAL.`);
+    const aligned = alignSeries(s.series, s.names, 1 + s.headerRows);
+    const fs: Forecaster[] = [];
+    for (let j = 0; j < aligned.columns.length; j++) {
+      if (j > 0) await yieldToHost();
+      try {
+        fs.push(cachedForecast(aligned.columns[j], { method: args.method, lambda: args.lambda, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows }));
+      } catch (e) {
+        if (e instanceof EngineError) throw new EngineError(e.code, `${s.names[j]}: ${e.message}`);
+        throw e;
+      }
+    }
+    await yieldToHost();
+    const t = totalAcross(fs, h, { level: lv, seed: sd, from: start });
+    const unbounded = naCell("The total's upper end is unbounded at this λ (past its pole).");
+    return finiteTable([[
+      t.mean ?? naCell(t.meanNote ?? "The total's mean does not exist."), t.median, t.interval[0], t.interval[1] ?? unbounded,
+      t.independent.interval[0], t.independent.interval[1] ?? unbounded,
+    ]]);
+  });
+}
+
+/**
+ * Mean on the original scale by Duan's smearing estimate: the average of the back-transformed point forecast plus each residual, for a log or Box-Cox model whose residuals need not be normal.
+ * @customfunction SMEARMEAN
+ * @helpurl https://localhost:3000/README.html#fwsmearmean
+ * @param {any[][]} mu Point forecast on the transformed scale (a cell or a range).
+ * @param {any[][]} residuals The model's residuals on the transformed scale (actual minus fitted), at least two; blank cells are skipped.
+ * @param {number} lambda The Box-Cox λ of the model's scale (0 = log).
+ * @returns {any[][]} The mean on the original scale, same shape as mu.
+ */
+export function SMEARMEAN(mu: any[][], residuals: any[][], lambda: number): any[][] {
+  return guard(() => {
+    const l = checkLambda(requiredNumber(lambda, "lambda"));
+    const e: number[] = [];
+    readMatrix(residuals, "residuals").forEach((row, i) => row.forEach((c, j) => {
+      if (c === null || c === undefined || (typeof c === "string" && c.trim() === "")) return;
+      if (typeof c !== "number") throw new EngineError("input", `residuals row ${i + 1}, column ${j + 1} is not a number (${JSON.stringify(String(c)).slice(0, 24)}); residuals must be numbers.`);
+      e.push(c);
+    }));
+    return elementwise([{ name: "mu", cells: readMatrix(mu, "mu") }], (a) => smearingMean(a, e, l).mean);
   });
 }

@@ -24,6 +24,7 @@ export function pastedData(text: string): PaneData {
     names: s.names,
     columns: s.names.map((_, j) => s.column(j)),
     rowLabels: s.labelColumn ? s.labelColumn.values : undefined,
+    labelColumns: table.header.map((h, j) => ({ h, j })).filter(({ j }) => table.isLabel(j)).map(({ h, j }) => ({ name: h || `column ${j + 1}`, values: table.labels(j) })),
     headerRows: 1,
   };
 }

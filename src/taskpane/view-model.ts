@@ -1,7 +1,9 @@
 // The pane's view model: raw columns and control values in, everything the pane shows out.
 // Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
-import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster } from "../engine";
-import { fanChartSvg } from "./chart/fan-chart";
+import { describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
+import { fanChartSvg } from "../chart/fan-chart";
+import { FW_NAMESPACE } from "./namespace";
+import { formatWhole } from "./locale";
 
 /** The data the pane works on: named columns of raw cells. */
 export interface PaneData {
@@ -11,6 +13,8 @@ export interface PaneData {
   columns: RawCell[][];
   /** Labels of the rows (periods), when known. */
   rowLabels?: string[];
+  /** Every column of labels (text such as series names or dates), by name, when known. */
+  labelColumns?: { name: string; values: string[] }[];
   /** The range address (in Excel), for the formula the pane writes. */
   address?: string;
   /** 1 when the first row of the range was a header. */
@@ -26,44 +30,50 @@ export interface CheckRow {
   lambda: string;
   lambdaInterval: [number, number] | null;
   ready: boolean;
-  /** "not Box-Cox ready" (minimum ≤ 0), "too short", "gaps", or null. */
+  /** Missing observations inside the series (blanks, and zeros when they are read as missing). */
+  missing: number;
+  /** "not Box-Cox ready" (minimum ≤ 0), "too short", "gaps" (more missing than a forecast accepts), or null. */
   badge: string | null;
   reason: string;
 }
 
 function fmt(x: number | null): string {
   if (x === null || !Number.isFinite(x)) return "–";
-  return Math.abs(x) >= 1000 ? Math.round(x).toLocaleString("en-GB") : String(Number(x.toPrecision(4)));
+  return Math.abs(x) >= 1000 ? formatWhole(x) : String(Number(x.toPrecision(4)));
 }
 
 /**
  * Screens each column and shapes the result for the table. A series whose minimum is ≤ 0 gets the
- * "not Box-Cox ready" badge with the reason and the fix; too-short series and interior gaps are
- * flagged too.
+ * "not Box-Cox ready" badge with the reason and the fix; too-short series and series with more
+ * missing observations than a forecast accepts are flagged too. With `zeros` "missing" (the
+ * "Treat zeros as missing" box) zeros are missing observations.
  * @example checkRows({ source: "x", names: ["A"], columns: [[1, 0, 2, 3]], headerRows: 0 }, 1)[0].badge // "not Box-Cox ready"
  */
-export function checkRows(data: PaneData, period: number): CheckRow[] {
-  return data.columns.map((_, j) => checkRow(data, j, period));
+export function checkRows(data: PaneData, period: number, zeros: ZerosRule = "keep"): CheckRow[] {
+  return data.columns.map((_, j) => checkRow(data, j, period, zeros));
 }
+
+/** How the pane names its zeros option in the check's advice. */
+export const ZEROS_OPTION_PANE = 'tick "Treat zeros as missing" in the fan controls';
 
 /**
  * The series-check row of column j (what {@link checkRows} does for each column), so a caller can
  * check a wide selection a few columns at a time.
  * @example checkRow({ source: "x", names: ["A"], columns: [[1, 2, 3, 4]], headerRows: 0 }, 0, 1).ready // true
  */
-export function checkRow(data: PaneData, j: number, period: number): CheckRow {
+export function checkRow(data: PaneData, j: number, period: number, zeros: ZerosRule = "keep"): CheckRow {
   const where = (i: number): string => data.rowLabels?.[i] ?? `row ${i + 1 + data.headerRows}`;
   const cells = data.columns[j];
   const name = data.names[j];
-  const r = screenSeries(cells, { period, label: name, where });
+  const r = screenSeries(cells, { period, label: name, where, zeros, zerosOption: ZEROS_OPTION_PANE });
   const iv = r.lambda ? r.lambda.interval : null;
   const interval: [number, number] | null = iv && iv[0] !== null && iv[1] !== null ? [iv[0], iv[1]] : null;
   const lambda = r.suggestedLambda === null ? "–" : interval ? `${fmt(r.suggestedLambda)} (${interval[0].toFixed(2)} to ${interval[1].toFixed(2)})` : fmt(r.suggestedLambda);
   let badge: string | null = null;
   if (r.nonPositive > 0) badge = "not Box-Cox ready";
   else if (r.fix === "too-short" || r.fix === "no-numbers") badge = "too short";
-  else if (r.interiorGaps.length) badge = "gaps";
-  return { name, n: r.n, min: fmt(r.min), blanks: r.blanks, lambda, lambdaInterval: interval, ready: r.boxCoxUsable && r.fix === "none", badge, reason: r.message };
+  else if (r.fix === "fill-gaps") badge = "gaps";
+  return { name, n: r.n, min: fmt(r.min), blanks: r.blanks, missing: r.missing, lambda, lambdaInterval: interval, ready: r.boxCoxUsable && r.fix === "none", badge, reason: r.message };
 }
 
 const WHAT_TO_SELECT = "Select the data: one column per series, oldest first, its name in the top cell (e.g. B1:B37 or B1:H74).";
@@ -104,6 +114,8 @@ export interface FanControls {
   transform?: string;
   /** "" or "0" (none), "auto", or a number as text. */
   shift?: string;
+  /** "missing": zeros are missing observations (the "Treat zeros as missing" box). Default "keep". */
+  zeros?: ZerosRule;
 }
 
 /** What the fan preview shows. */
@@ -160,12 +172,12 @@ export function fanView(data: PaneData, c: FanControls): FanView {
   try {
     const cells = data.columns[c.series];
     if (!cells) return { ok: false, message: "Choose a series." };
-    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), transform: c.transform || undefined, shift: c.shift || undefined, period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows });
+    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), transform: c.transform || undefined, shift: c.shift || undefined, period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows, zeros: c.zeros });
     const fan = fanTable(f, c.horizon, { levels: c.levels });
     const history: number[] = [];
     const labels: string[] = [];
     cells.forEach((v, i) => {
-      if (typeof v === "number") {
+      if (typeof v === "number" && !(c.zeros === "missing" && v === 0)) {
         history.push(v);
         labels.push(data.rowLabels?.[i] ?? String(i + 1));
       }
@@ -221,12 +233,15 @@ function quote(s: string): string {
 
 /**
  * The `=FW.FAN(...)` formula matching the controls, for a series at `address` (so the sheet
- * recalculates with the data).
+ * recalculates with the data), in this build's namespace (FW deployed, FWDEV in development). With
+ * zeros read as missing, the range is passed with its zeros blanked (`IF(range=0,"",range)`): in
+ * cells a blank inside a series is a missing observation.
  * @example fanFormula("Sheet1!B2:B74", { series: 0, method: "auto", lambda: "auto", horizon: 12, period: 12, levels: "80,95" }) // '=FW.FAN(Sheet1!B2:B74,12,"auto","auto","80,95",12)'
  */
 export function fanFormula(address: string, c: FanControls): string {
   const l = lambdaOption(c.lambda);
-  const base = `=FW.FAN(${address},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period}`;
+  const values = c.zeros === "missing" ? `IF(${address}=0,"",${address})` : address;
+  const base = `=${FW_NAMESPACE}.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period}`;
   const t = c.transform && c.transform !== "box-cox" ? c.transform : "";
   const sh = c.shift && c.shift !== "0" ? c.shift : "";
   if (!t && !sh) return `${base})`;
@@ -234,44 +249,3 @@ export function fanFormula(address: string, c: FanControls): string {
   return `${base},FALSE,${t ? quote(t) : ""},${shiftArg})`.replace(/,+\)$/, ")");
 }
 
-/** What the coverage-audit view shows. */
-export type AuditView =
-  | { ok: true; audit: CoverageAudit; strip: string; lines: [string, string][] }
-  | { ok: false; message: string };
-
-/**
- * A strip of hits and misses over time (one cell per row, misses in red-brown), so clustering is
- * visible at a glance. Self-contained SVG.
- * @example hitStripSvg([0, 1, 0], 300).includes("miss") // true
- */
-export function hitStripSvg(hits: readonly number[], width = 300): string {
-  const n = hits.length;
-  const w = Math.max(1, Math.min(12, Math.floor(width / Math.max(n, 1))));
-  const h = 18;
-  const cells = hits.map((v, i) => `<rect class="${v ? "miss" : "hit"}" x="${i * w}" y="0" width="${Math.max(w - (w > 3 ? 1 : 0), 1)}" height="${h}" fill="${v ? "#9c3d1f" : "#e9c27a"}"/>`).join("");
-  return `<svg xmlns="http://www.w3.org/2000/svg" width="${n * w}" height="${h}" viewBox="0 0 ${n * w} ${h}" role="img" aria-label="Hits and misses over time: ${hits.filter((v) => v).length} misses in ${n} rows"><title>Hits (ochre) and misses (red-brown), oldest first</title>${cells}</svg>`;
-}
-
-/**
- * Audits the chosen columns (actual, lower, upper) at a level, with the strip and the readout lines.
- * @example auditView(data, 5, 1, 2, 80).ok
- */
-export function auditView(data: PaneData, actual: number, lower: number, upper: number, level: number): AuditView {
-  try {
-    const a = auditCoverage(data.columns[actual] ?? [], data.columns[lower] ?? [], data.columns[upper] ?? [], level, 1 + data.headerRows);
-    const p = (x: number): string => (x < 0.001 ? x.toExponential(1) : x.toFixed(3));
-    const lines: [string, string][] = [
-      ["observed coverage", `${(100 * a.coverage).toFixed(1)}% of ${a.n} (nominal ${(100 * a.nominal).toFixed(0)}%)`],
-      ["misses", `${a.misses}${a.skipped ? ` (${a.skipped} rows skipped for blanks)` : ""}`],
-      ["Kupiec (miss rate)", `p = ${p(a.kupiec.p)}`],
-      ["independence (clustering)", `p = ${p(a.independence.p)}`],
-      ["conditional coverage", `p = ${p(a.conditional.p)}`],
-      ["zone", a.zone],
-      ["mean interval score", a.intervalScore.toPrecision(5)],
-    ];
-    return { ok: true, audit: a, strip: hitStripSvg(a.hits), lines };
-  } catch (e) {
-    if (isEngineError(e)) return { ok: false, message: e.message };
-    return { ok: false, message: `Fanwise could not audit this (${e instanceof Error ? e.message : String(e)}).` };
-  }
-}

@@ -71,3 +71,30 @@ describe("our own fit reaches statsmodels' multistart log-likelihood − 0.5", (
     console.log(`ETS fits: ours ≥ statsmodels' best in ${better} of ${improvements.length} fixtures\n${improvements.join("\n")}`);
   });
 });
+
+describe("AICc against statsmodels 0.13.5 ETSModel (ets.* fixtures: aic, aicc, df_model, nobs)", () => {
+  // statsmodels: aic = −2ℓ + 2k, aicc = aic + 2k(k + 1)/(n − k − 1), k = df_model, which counts the
+  // smoothing and damping parameters, the initial states and σ². Its seasonal models estimate all m
+  // initial seasonal states; ours fix one of them at 0 (the seasonal states are defined up to a
+  // constant that the level absorbs, METHODS §3), so our k is df_model − 1 for seasonal models and
+  // df_model otherwise. Non-seasonal: our AICc must equal statsmodels' exactly (to the llf's rtol).
+  const aicc = (llf: number, k: number, n: number): number => -2 * llf + 2 * k + (2 * k * (k + 1)) / (n - k - 1);
+  for (const c of fixtures) {
+    const code = c.id.split(".").pop() as string;
+    const method = CODE[code];
+    const m = c.dataset.seasonal_periods ?? 1;
+    const seasonal = m > 1;
+    test(`${c.id}: ${seasonal ? "k = df_model − 1 (one initial seasonal state fixed), AICc from statsmodels' ℓ with that k" : "k = df_model and AICc = statsmodels' aicc"}`, () => {
+      const e = c.expected;
+      // the fixture's own convention, so the test reads it right
+      expectClose(e.aic, -2 * e.llf + 2 * e.df_model, { rtol: 1e-12 }, "statsmodels aic = −2ℓ + 2k");
+      expectClose(e.aicc, aicc(e.llf, e.df_model, e.nobs), { rtol: 1e-12 }, "statsmodels aicc");
+      const { p, x0 } = paramsFor(c, m);
+      const model = smoothingWithParams(seriesFor(c), method, m, p, x0);
+      expect(model.k).toBe(seasonal ? e.df_model - 1 : e.df_model);
+      const tol = { rtol: 1e-8, atol: 1e-8 * Math.abs(e.llf) };
+      if (seasonal) expectClose(model.aicc, aicc(e.llf, e.df_model - 1, e.nobs), tol, "AICc with m − 1 free seasonal states");
+      else expectClose(model.aicc, e.aicc, tol, "AICc");
+    });
+  }
+});

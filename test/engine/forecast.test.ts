@@ -215,8 +215,9 @@ describe("bad input gets a clear message", () => {
   test("a series too short for the method says how many values it needs", () => {
     expect(() => fitForecast([5, 6, 7], { method: "damped", lambda: 0 })).toThrow(/needs at least \d+ values/);
   });
-  test("interior blanks are refused, naming the row; leading and trailing ones are trimmed and reported", () => {
-    expect(() => fitForecast([null, 5, 6, null, 7, 8], { method: "naive", lambda: 0, label: "Millbrook" })).toThrow(/Millbrook has a blank in row 4/);
+  test("interior blanks are missing observations (too many are refused, naming the rows); leading and trailing ones are trimmed and reported", () => {
+    expect(() => fitForecast([null, 5, null, 6, null, 7, 8], { method: "naive", lambda: 0, label: "Millbrook" })).toThrow(/Millbrook has 2 missing values among its 6 periods \(33%, rows 3, 5\)/);
+    expect(fitForecast([null, 5, 6, null, 7, 8, 9, 8], { method: "naive", lambda: 0, label: "Millbrook" }).missing).toBe(1);
     const g = fitForecast([null, null, 5, 6, 7, 8, null], { method: "naive", lambda: 0 });
     expect(g.n).toBe(4);
     expect(g.notes.join(" ")).toMatch(/2 leading blanks skipped.*1 trailing blank skipped/);

@@ -15,16 +15,38 @@ describe("screenSeries counts what a user needs to know", () => {
     expect(r.textCells).toBe(2);
     expect(r.min).toBe(5);
     expect(r.nonPositive).toBe(0);
-    expect(r.fix).toBe("fill-gaps");
-    expect(r.message).toMatch(/blank inside the series \(at position 5\)/);
+    expect(r.missing).toBe(1);
+    expect(r.fix).toBe("none");
+    expect(r.message).toMatch(/1 blank inside the series \(at position 5\) is a missing observation/);
   });
-  test("a zero month makes Box-Cox unusable and suggests a shift", () => {
-    const r = screenSeries([120, 0, 130, 140, 150, 160], { label: "Old Quay" });
+  test("too many blanks inside the series (over 20%) ask to fill some", () => {
+    const r = screenSeries([5, null, 6, null, 7, 8, 9, 10], { label: "Shop" });
+    expect(r.fix).toBe("fill-gaps");
+    expect(r.message).toMatch(/2 blanks inside the series \(25% of 8 periods, at position 2, position 4\): at most 20% may be missing/);
+  });
+  test("zeros in a row make Box-Cox unusable and suggest a shift", () => {
+    const r = screenSeries([120, 0, 0, 130, 140, 150, 160, 170, 165, 180], { label: "Old Quay" });
     expect(r.boxCoxUsable).toBe(false);
+    expect(r.zerosIsolated).toBe(false);
     expect(r.fix).toBe("shift");
     // shift "auto" = −min + half the smallest step above it (autoShift): 0 + 120/2
     expect(r.shift).toBe(60);
-    expect(r.message).toMatch(/Not Box-Cox ready: Old Quay has 1 zero \(minimum 0, first at position 2\).*shift "auto", which adds 60/);
+    expect(r.message).toMatch(/Not Box-Cox ready: Old Quay has 2 zeros \(minimum 0, first at position 2\).*shift "auto", which adds 60/);
+  });
+  test("an isolated zero month (a closed month) suggests reading zeros as missing, naming the face's option", () => {
+    const r = screenSeries([120, 0, 130, 140, 150, 160], { label: "Old Quay" });
+    expect(r.zerosIsolated).toBe(true);
+    expect(r.fix).toBe("zeros-missing");
+    expect(r.message).toMatch(/If that period was closed, read zeros as missing observations: leave those cells blank \(cells\), add --zeros missing \(command line\), or tick "Treat zeros as missing" \(pane\)\. Otherwise use shift "auto", which adds 60/);
+    const cli = screenSeries([120, 0, 130, 140, 150, 160], { label: "Old Quay", zerosOption: "add --zeros missing" });
+    expect(cli.message).toMatch(/read zeros as missing observations: add --zeros missing\./);
+  });
+  test("with zeros read as missing, the same series is Box-Cox ready with one missing observation", () => {
+    const r = screenSeries([120, 0, 130, 140, 150, 160], { label: "Old Quay", zeros: "missing" });
+    expect(r.boxCoxUsable).toBe(true);
+    expect(r.missing).toBe(1);
+    expect(r.zeros).toBe(1);
+    expect(r.message).toMatch(/1 missing value inside the series \(at position 2\) is a missing observation/);
   });
   test("a negative month suggests Yeo-Johnson (or a shift past the minimum)", () => {
     const r = screenSeries([120, -30, 130, 140, 150, 160], { label: "Parts" });
@@ -67,15 +89,16 @@ describe("screenSeries counts what a user needs to know", () => {
   });
 });
 
-describe("cleanSeries trims the ends and refuses interior gaps", () => {
+describe("cleanSeries trims the ends and marks interior gaps as missing", () => {
   test("leading and trailing blanks are trimmed and counted", () => {
     const c = cleanSeries([null, null, 3, 4, 5, ""]);
     expect(c.values).toEqual([3, 4, 5]);
     expect(c.leadingBlanks).toBe(2);
     expect(c.trailingBlanks).toBe(1);
   });
-  test("an interior blank is refused, naming its row", () => {
-    expect(() => cleanSeries([3, null, 5], "Millbrook", 2)).toThrow(/Millbrook has a blank in row 3/);
+  test("an interior blank is a missing observation (NaN at its place); too many are refused, naming the rows", () => {
+    expect(cleanSeries([3, 4, null, 5, 6, 7], "Millbrook", 2).values).toEqual([3, 4, NaN, 5, 6, 7]);
+    expect(() => cleanSeries([3, null, 5], "Millbrook", 2)).toThrow(/Millbrook has 1 missing value among its 3 periods \(33%, rows 3\)/);
   });
   test("interior text is refused, naming its row", () => {
     expect(() => cleanSeries([3, "closed", 5], "Millbrook")).toThrow(/text \("closed"\) in row 2/);

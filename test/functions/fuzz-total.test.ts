@@ -20,6 +20,6 @@ const method = optional(fc.oneof(
 const seed = optional(fc.oneof({ weight: 5, arbitrary: fc.integer({ min: 0, max: 1e6 }) }, { weight: 1, arbitrary: fc.constantFrom(-1, 1.5, 1e20) }));
 
 describe(`forecast totals and model descriptions survive ${FUZZ_RUNS} hostile calls each (seeded)`, () => {
-  test("FW.TOTAL", () => run("FW.TOTAL", fc.tuple(anyRange, required(goodHorizon), method, optional(lambdaKeyword), optional(goodLevel), optional(goodPeriod), seed), FW.TOTAL, 13), FUZZ_TIMEOUT);
+  test("FW.TOTAL", () => run("FW.TOTAL", fc.tuple(anyRange, required(goodHorizon), method, optional(lambdaKeyword), optional(goodLevel), optional(goodPeriod), seed, optional(fc.oneof({ weight: 5, arbitrary: fc.integer({ min: 1, max: 12 }) }, { weight: 1, arbitrary: fc.constantFrom(0, -1, 2.5, 1e9) }))), FW.TOTAL, 13), FUZZ_TIMEOUT);
   test("FW.MODELINFO", () => run("FW.MODELINFO", fc.tuple(anyRange, method, optional(lambdaKeyword), optional(goodPeriod)), FW.MODELINFO, 14), FUZZ_TIMEOUT);
 });

@@ -2,9 +2,9 @@
 // uses (readable λ and form together by original-scale AICc), or the model's own maximum, or
 // Guerrero's method, or the i.i.d. profile likelihood — each with the interval that belongs to it.
 import { EngineError, autoShift, fitLambda, fitLambdaForModel, LambdaChoice, parseShift, screenSeries } from "../../engine";
-import { Command, COMMON } from "../command";
-import { seriesError, writeOutput } from "../output";
-import { cleanSeriesAtLines, errorMessage, lineOf, readSeriesFile } from "../series-input";
+import { Command, COMMON, IO_OPTIONS } from "../command";
+import { emit, exitCode, seriesError } from "../output";
+import { cleanSeriesAtLines, errorMessage, lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const lambdaCommand: Command = {
   name: "lambda",
@@ -16,24 +16,25 @@ export const lambdaCommand: Command = {
     transform: { ...COMMON.transform, type: { kind: "choice", values: ["box-cox", "yeo-johnson"] }, value: "box-cox|yeo-johnson" },
     shift: COMMON.shift,
     bounds: { type: { kind: "pair" }, value: "LO,HI", help: "search λ between these two numbers", example: "-1,2", default: "-1,2" },
-    json: COMMON.json,
+    zeros: COMMON.zeros,
+    ...IO_OPTIONS,
   },
   examples: ["fanwise lambda sales.csv --period 12", "fanwise lambda sales.csv --method mle --json"],
-  run(p, io) {
+  async run(p, io) {
     const period = p.int("period") ?? 1;
     const method = p.choice("method") ?? "auto";
     const kind = (p.choice("transform") ?? "box-cox") as "box-cox" | "yeo-johnson";
     const shiftSpec = parseShift(p.text("shift"));
     const [lower, upper] = p.pair("bounds") ?? [undefined, undefined];
-    const data = readSeriesFile(p);
+    const data = await readSeriesFile(p, io);
     const results = data.names.map((_, j) => {
       try {
         const cells = data.column(j);
         if (kind === "box-cox" && shiftSpec === 0) {
-          const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data) });
+          const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI });
           if (!screen.boxCoxUsable) throw new EngineError("input", screen.message);
         }
-        const clean = cleanSeriesAtLines(cells, data, j);
+        const clean = cleanSeriesAtLines(cells, data, j, zerosOf(p));
         const shift = kind === "box-cox" ? (shiftSpec === "auto" ? autoShift(clean.values) : shiftSpec) : 0;
         let r: LambdaChoice;
         if (method === "auto" || method === "model") {
@@ -41,7 +42,7 @@ export const lambdaCommand: Command = {
         } else {
           if (kind !== "box-cox") throw new EngineError("input", `--method ${method} is defined for Box-Cox; with --transform yeo-johnson use --method auto or model.`);
           const y = clean.values.map((v) => v + shift);
-          if (y.some((v) => !(v > 0))) throw new EngineError("input", `${data.names[j]} has values ≤ 0 after the shift ${shift}; use --shift auto or --transform yeo-johnson.`);
+          if (y.some((v) => !Number.isNaN(v) && !(v > 0))) throw new EngineError("input", `${data.names[j]} has values ≤ 0 after the shift ${shift}; use --shift auto or --transform yeo-johnson.`);
           r = fitLambda(y, { method: method as "guerrero" | "mle", period, lower, upper, label: data.names[j] });
         }
         return { ok: true as const, r };
@@ -49,12 +50,13 @@ export const lambdaCommand: Command = {
         return { ok: false as const, message: errorMessage(e) };
       }
     });
-    writeOutput(io, p.has("json"), {
+    await emit(io, p, {
+      command: "lambda",
       json: () => {
         const series: Record<string, unknown> = {};
         results.forEach((x, j) => {
           series[data.names[j]] = x.ok
-            ? { lambda: x.r.lambda, method: x.r.method, interval: x.r.interval, loglik: x.r.loglik, readable: x.r.readable, onBound: x.r.onBound, window: x.r.window, n: x.r.n, note: x.r.note }
+            ? { lambda: x.r.lambda, method: x.r.method, interval: x.r.interval, loglik: x.r.loglik, readable: x.r.readable, onBound: x.r.onBound, window: x.r.window, n: x.r.n, missing: x.r.missing, note: x.r.note }
             : { error: x.message };
         });
         return { series };
@@ -63,8 +65,11 @@ export const lambdaCommand: Command = {
       rows: () => results.map((x, j) => x.ok
         ? [data.names[j], x.r.lambda, x.r.method, x.r.interval[0], x.r.interval[1], x.r.readable, x.r.loglik, x.r.onBound ?? "", x.r.note]
         : [data.names[j], "", method, "", "", "", "", "", x.message]),
+      exact: ["readable_lambda"],
+      formats: { lambda: "0.0000", interval_low: "0.0000", interval_high: "0.0000", readable_lambda: "0.00", loglik: "0.000" },
+      cautions: [...data.notes, ...results.flatMap((x, j) => (x.ok ? [] : [`${data.names[j]}: ${x.message}`]))],
     });
     for (const [j, x] of results.entries()) if (!x.ok) seriesError(io, data.names[j], x.message);
-    return 0;
+    return exitCode(results.filter((x) => x.ok).length, results.filter((x) => !x.ok).length);
   },
 };

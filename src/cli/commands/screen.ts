@@ -1,25 +1,26 @@
 // fanwise screen: is each series ready for a Box-Cox transform, and if not, what to do.
 import { screenSeries } from "../../engine";
-import { Command, COMMON } from "../command";
-import { writeOutput } from "../output";
-import { lineOf, readSeriesFile } from "../series-input";
+import { Command, COMMON, IO_OPTIONS } from "../command";
+import { emit } from "../output";
+import { lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const screenCommand: Command = {
   name: "screen",
   summary: "check each series: blanks, text cells, values ≤ 0, a suggested λ",
   args: "FILE",
-  options: { period: COMMON.period, json: COMMON.json },
-  examples: ["fanwise screen sales.csv --period 12"],
-  run(p, io) {
+  options: { period: COMMON.period, zeros: COMMON.zeros, ...IO_OPTIONS },
+  examples: ["fanwise screen sales.csv --period 12", "fanwise screen book.xlsx --sheet Sales --series \"Harbour Street\""],
+  async run(p, io) {
     const period = p.int("period") ?? 1;
-    const data = readSeriesFile(p);
-    const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data) }));
-    writeOutput(io, p.has("json"), {
+    const data = await readSeriesFile(p, io);
+    const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI }));
+    await emit(io, p, {
+      command: "screen",
       json: () => {
         const series: Record<string, unknown> = {};
         results.forEach((r, j) => {
           series[data.names[j]] = {
-            n: r.n, blanks: r.blanks, leadingBlanks: r.leadingBlanks, trailingBlanks: r.trailingBlanks, interiorGaps: r.interiorGaps,
+            n: r.n, blanks: r.blanks, leadingBlanks: r.leadingBlanks, trailingBlanks: r.trailingBlanks, interiorGaps: r.interiorGaps, missing: r.missing, zerosIsolated: r.zerosIsolated,
             textCells: r.textCells, min: r.min, max: r.max, zeros: r.zeros, negatives: r.negatives, nonPositive: r.nonPositive,
             boxCoxUsable: r.boxCoxUsable, suggestedLambda: r.suggestedLambda, lambdaEstimate: r.lambda ? r.lambda.lambda : null,
             lambdaMethod: r.lambda ? r.lambda.method : null, fix: r.fix, shift: r.shift, message: r.message,
@@ -29,8 +30,10 @@ export const screenCommand: Command = {
       },
       header: ["series", "n", "blanks", "text_cells", "min", "nonpositive", "boxcox_usable", "suggested_lambda", "fix", "message"],
       rows: () => results.map((r, j) => [data.names[j], r.n, r.blanks, r.textCells, r.min, r.nonPositive, r.boxCoxUsable ? "yes" : "no", r.suggestedLambda === null ? "" : round(r.suggestedLambda), r.fix, r.message]),
+      exact: ["min"],
+      cautions: data.notes,
     });
-    return 0;
+    return 0; // a check, not a computation: every series gets its verdict
   },
 };
 

@@ -42,3 +42,28 @@ export function solveSymmetric(A: Float64Array, b: Float64Array, d: number, work
   const zero = work ? work.x.fill(0) : new Float64Array(d);
   return zero; // hopeless: fall back to zero initial states (the objective then says so)
 }
+
+/**
+ * A lower-triangular factor C with C C′ = P of a symmetric positive semi-definite P (row-major,
+ * d×d), by the outer-product Cholesky algorithm that leaves a column at zero when its pivot is at
+ * rounding level (≤ 1e-12 × the largest diagonal): P may be singular, e.g. a covariance that is
+ * zero in some directions. Used to draw from N(0, P).
+ * @example semidefiniteFactor(new Float64Array([4, 2, 2, 1]), 2) // [2, 0, 1, 0]
+ */
+export function semidefiniteFactor(P: Float64Array, d: number): Float64Array {
+  const A = Float64Array.from(P);
+  const C = new Float64Array(d * d);
+  let maxDiag = 0;
+  for (let i = 0; i < d; i++) maxDiag = Math.max(maxDiag, A[i * d + i]);
+  const tol = 1e-12 * maxDiag;
+  for (let j = 0; j < d; j++) {
+    const pivot = A[j * d + j];
+    if (!(pivot > tol)) continue;
+    const r = Math.sqrt(pivot);
+    for (let i = j; i < d; i++) C[i * d + j] = A[i * d + j] / r;
+    for (let i = j + 1; i < d; i++) {
+      for (let k = j + 1; k <= i; k++) A[i * d + k] -= C[i * d + j] * C[k * d + j];
+    }
+  }
+  return C;
+}

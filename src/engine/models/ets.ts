@@ -14,6 +14,9 @@ import { createRandom } from "../_lib/random";
 import { SMOOTHING, SmoothingMethod } from "./methods";
 import { stateSpaceMoments, StateSpaceForm } from "./state-space";
 import type { FittedModel, StepMoments } from "./types";
+import { concentrateWithGaps, filterWithGaps, gapStates, gapWorkspace } from "./ets-gaps";
+import { semidefiniteFactor } from "../_lib/cholesky";
+import { countMissing } from "../series/clean";
 
 /** Bounds of the smoothing parameters (as statsmodels 0.13 uses): α, β/α, γ/(1 − α) in [1e-4, 1 − 1e-4]. */
 export const SMOOTH_LO = 1e-4;
@@ -291,8 +294,29 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
   if (y.length < need) {
     throw new EngineError("input", `${SMOOTHING[method].title} (${method}) needs at least ${need} values${spec.seasonal ? ` (two full seasons of ${spec.m} and enough for its parameters)` : ""}; the series has ${y.length}.`);
   }
-  const ws = workspace(y.length, spec);
-  const obj = (u: number[]): number => Math.log(concentrate(y, spec, smoothingFromUnit(u, spec), ws));
+  const missing = countMissing(y);
+  let obj: (u: number[]) => number;
+  let statesAt: (p: Smoothing) => InitialStates;
+  if (missing === 0) {
+    const ws = workspace(y.length, spec);
+    obj = (u: number[]): number => Math.log(concentrate(y, spec, smoothingFromUnit(u, spec), ws));
+    statesAt = (p: Smoothing): InitialStates => {
+      concentrate(y, spec, p, ws);
+      return statesOf(ws, spec);
+    };
+  } else {
+    checkGapsFit(y, method, period);
+    const ws = gapWorkspace(y, spec);
+    // −2ℓ/n_obs up to a constant: ln Σ v²/s + (1/n_obs)Σ ln s (METHODS §8)
+    obj = (u: number[]): number => {
+      const r = concentrateWithGaps(y, spec, smoothingFromUnit(u, spec), ws);
+      return Math.log(r.sse) + r.sumLogS / r.nObs;
+    };
+    statesAt = (p: Smoothing): InitialStates => {
+      concentrateWithGaps(y, spec, p, ws);
+      return gapStates(ws, spec);
+    };
+  }
   let bestU: number[];
   if (!spec.trend && !spec.seasonal) {
     // one parameter: a grid, then Brent's method in the best cell
@@ -322,9 +346,36 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
     bestU = refineInBox(obj, top.x, top.fx).x;
   }
   const p = smoothingFromUnit(bestU, spec);
-  concentrate(y, spec, p, ws);
-  const x0 = statesOf(ws, spec);
-  return buildModel(y, method, period, p, x0);
+  return buildModel(y, method, period, p, statesAt(p));
+}
+
+/**
+ * Checks that a series with missing observations (NaN) can be fitted by a smoothing method:
+ * enough observed points for its parameters (k + 2), and for a seasonal method at least one
+ * observation at every position of the season (an unobserved season's effect cannot be
+ * estimated). Throws an EngineError with the numbers.
+ * @example checkGapsFit([1, NaN, 3, 4, 5, 6], "ses", 1) // passes
+ */
+export function checkGapsFit(y: readonly number[], method: SmoothingMethod, period: number): void {
+  const spec = specOf(method, period);
+  const missing = countMissing(y);
+  const nObs = y.length - missing;
+  const k = parameterCount(method, period);
+  if (nObs < k + 2) {
+    throw new EngineError("input", `${SMOOTHING[method].title} (${method}) needs at least ${k + 2} observed values; the series has ${nObs} (${missing} of its ${y.length} periods missing).`);
+  }
+  if (spec.seasonal) {
+    const m = spec.m;
+    const seen = new Array<number>(m).fill(0);
+    for (let t = 0; t < y.length; t++) if (!Number.isNaN(y[t])) seen[t % m]++;
+    const empty = seen.map((c, j) => (c === 0 ? j : -1)).filter((j) => j >= 0);
+    if (empty.length) {
+      const j = empty[0];
+      const at: number[] = [];
+      for (let t = j; t < y.length && at.length < 4; t += m) at.push(t + 1);
+      throw new EngineError("input", `${SMOOTHING[method].title} (${method}) needs at least one observation in every season, but ${empty.length === 1 ? "one season has" : `${empty.length} seasons have`} none: every value at position ${j + 1} of the ${m}-period season (periods ${at.join(", ")}, … of the series) is missing. Fill one of them, or use a non-seasonal method.`);
+    }
+  }
 }
 
 /**
@@ -352,6 +403,8 @@ export function smoothingWithParams(y: readonly number[], method: SmoothingMetho
 }
 
 function buildModel(y: readonly number[], method: SmoothingMethod, period: number, p: Smoothing, x0: InitialStates): FittedModel {
+  const missing = countMissing(y);
+  if (missing > 0) return buildModelWithGaps(y, method, period, p, x0, missing);
   const spec = specOf(method, period);
   const n = y.length;
   const resid = new Float64Array(n);
@@ -361,19 +414,14 @@ function buildModel(y: readonly number[], method: SmoothingMethod, period: numbe
   const k = parameterCount(method, period);
   const aicc = -2 * loglik + 2 * k + (2 * k * (k + 1)) / Math.max(n - k - 1, 1e-9);
   const m = spec.m;
-  const params: Record<string, number> = { alpha: p.alpha };
-  if (spec.trend) params.beta = p.beta;
-  if (spec.seasonal) params.gamma = p.gamma;
-  if (spec.damped) params.phi = p.phi;
-  params.level0 = x0.level;
-  if (spec.trend) params.trend0 = x0.trend;
-  if (spec.seasonal) for (let j = 0; j < m; j++) params[`season${j + 1}`] = x0.season[j];
+  const params = paramsOf(spec, p, x0);
   const form = stateForm(spec, p, end.level, end.trend, end.ring, n);
   const residuals = Object.freeze(Array.from(resid));
   const model: FittedModel = {
     method,
     title: `${SMOOTHING[method].title} (${SMOOTHING[method].code})`,
     n,
+    missing: 0,
     period: m,
     params: Object.freeze(params),
     sigma: Math.sqrt(sigma2),
@@ -383,6 +431,62 @@ function buildModel(y: readonly number[], method: SmoothingMethod, period: numbe
     residuals,
     forecast: (h: number): StepMoments[] => stateSpaceMoments(form, sigma2, h),
     simulate: (h: number, paths: number, seed: number): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed),
+    simulateShocks: (h: number, paths: number, seed: number, shocks: Float64Array): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed, undefined, shocks),
+  };
+  return Object.freeze(model);
+}
+
+function paramsOf(spec: Spec, p: Smoothing, x0: InitialStates): Record<string, number> {
+  const params: Record<string, number> = { alpha: p.alpha };
+  if (spec.trend) params.beta = p.beta;
+  if (spec.seasonal) params.gamma = p.gamma;
+  if (spec.damped) params.phi = p.phi;
+  params.level0 = x0.level;
+  if (spec.trend) params.trend0 = x0.trend;
+  if (spec.seasonal) for (let j = 0; j < spec.m; j++) params[`season${j + 1}`] = x0.season[j];
+  return params;
+}
+
+/**
+ * The model on a series with missing observations (NaN), by the Kalman filter of METHODS §8:
+ * σ̂² = (1/n_obs)Σ v_t²/s_t, ℓ = −½Σ ln(2π σ̂² s_t) − n_obs/2, AICc on n_obs; forecasts start
+ * from x̂_T with covariance σ²P̃_T, and simulated paths draw the state at T from it.
+ */
+function buildModelWithGaps(y: readonly number[], method: SmoothingMethod, period: number, p: Smoothing, x0: InitialStates, missing: number): FittedModel {
+  const spec = specOf(method, period);
+  const n = y.length;
+  const r = filterWithGaps(y, spec, p, x0);
+  const nObs = r.nObs;
+  const sigma2 = r.sse / nObs;
+  const loglik = -0.5 * r.sumLogS - 0.5 * nObs * (Math.log(2 * Math.PI * sigma2) + 1);
+  const k = parameterCount(method, period);
+  const aicc = -2 * loglik + 2 * k + (2 * k * (k + 1)) / Math.max(nObs - k - 1, 1e-9);
+  const d = r.sys.d;
+  const form = stateForm(spec, p, 0, 0, new Float64Array(spec.m), n);
+  form.x = Array.from(r.x);
+  const Pt = Array.from({ length: d }, (_, i) => Array.from(r.P.subarray(i * d, (i + 1) * d)));
+  const factor = semidefiniteFactor(r.P, d);
+  // the final states as the complete-data simulation holds them: level, trend, and the ring
+  const s0 = spec.trend ? 2 : 1;
+  const m = spec.m;
+  const ring = new Float64Array(m);
+  if (spec.seasonal) for (let i = 0; i < m; i++) ring[(((n - 1 - i) % m) + m) % m] = r.x[s0 + i];
+  const end = { level: r.x[0], trend: spec.trend ? r.x[1] : 0, ring };
+  const model: FittedModel = {
+    method,
+    title: `${SMOOTHING[method].title} (${SMOOTHING[method].code})`,
+    n,
+    missing,
+    period: m,
+    params: Object.freeze(paramsOf(spec, p, x0)),
+    sigma: Math.sqrt(sigma2),
+    loglik,
+    aicc,
+    k,
+    residuals: Object.freeze(Array.from(r.residuals)),
+    forecast: (h: number): StepMoments[] => stateSpaceMoments(form, sigma2, h, Pt),
+    simulate: (h: number, paths: number, seed: number): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed, { factor, d, s0 }),
+    simulateShocks: (h: number, paths: number, seed: number, shocks: Float64Array): Float64Array => simulate(spec, p, end, n, Math.sqrt(sigma2), h, paths, seed, { factor, d, s0 }, shocks),
   };
   return Object.freeze(model);
 }
@@ -419,7 +523,13 @@ function stateForm(spec: Spec, p: Smoothing, level: number, trend: number, ring:
   return { F, w, g, x };
 }
 
-function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number; ring: Float64Array }, n: number, sigma: number, h: number, paths: number, seed: number): Float64Array {
+/**
+ * Sample paths from the final states. With `uncertain` (a series with gaps), each path first
+ * draws its state at T from N(x̂_T, σ²P̃_T) through a factor C with C C′ = P̃_T, then runs the
+ * recursion. With `shocks` (standard normals, paths × h), those drive the steps instead of the
+ * generator (joint simulation across series).
+ */
+function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number; ring: Float64Array }, n: number, sigma: number, h: number, paths: number, seed: number, uncertain?: { factor: Float64Array; d: number; s0: number }, shocks?: Float64Array): Float64Array {
   const rng = createRandom(seed);
   const out = new Float64Array(paths * h);
   const m = spec.m;
@@ -427,14 +537,27 @@ function simulate(spec: Spec, p: Smoothing, end: { level: number; trend: number;
   const beta = spec.trend ? p.beta : 0;
   const gamma = spec.seasonal ? p.gamma : 0;
   const ring = new Float64Array(m);
+  const z = uncertain ? new Float64Array(uncertain.d) : null;
   for (let r = 0; r < paths; r++) {
     let l = end.level;
     let b = spec.trend ? end.trend : 0;
     ring.set(end.ring);
+    if (uncertain && z) {
+      const { factor: C, d, s0 } = uncertain;
+      for (let i = 0; i < d; i++) z[i] = rng.normal();
+      for (let i = 0; i < d; i++) {
+        let dx = 0;
+        for (let j = 0; j <= i; j++) dx += C[i * d + j] * z[j];
+        dx *= sigma;
+        if (i === 0) l += dx;
+        else if (spec.trend && i === 1) b += dx;
+        else ring[(((n - 1 - (i - s0)) % m) + m) % m] += dx;
+      }
+    }
     for (let j = 0; j < h; j++) {
       const k = (n + j) % m;
       const pb = phi * b;
-      const e = sigma * rng.normal();
+      const e = sigma * (shocks ? shocks[r * h + j] : rng.normal());
       out[r * h + j] = l + pb + ring[k] + e;
       l = l + pb + p.alpha * e;
       b = pb + beta * e;

@@ -114,8 +114,10 @@ export function quantileTable(f: Forecaster, horizon: number, probs: readonly nu
   return f.forecast(H).map((s) => z.map((zi, j) => inverseOf(f, s.mean + zi * s.sd, `the ${fmt(probs[j])} quantile`)));
 }
 
-/** A forecast of the total over steps 1..H. */
+/** A forecast of the total over steps from..H. */
 export interface TotalForecast {
+  /** First step of the window (1 = the next period). */
+  from: number;
   horizon: number;
   level: number;
   /** Sum of the per-step means (linearity of expectation; each mean exact where it exists, see meanUsed). */
@@ -136,18 +138,35 @@ export interface TotalForecast {
 }
 
 /**
- * The total over steps 1..H (e.g. a year's budget from monthly forecasts): the mean is the sum of
- * the per-step means (linearity of expectation, whatever the dependence between steps), each by
- * `mean` (`auto` default: exact where it exists, Taylor with its accuracy stated where it does not;
- * METHODS §9), with the fan's caution rule; medians do not add, so the
+ * Checks the first step of a window from..horizon: a whole number from 1 to horizon.
+ * @example checkWindowStart(8, 19) // 8
+ */
+export function checkWindowStart(from: unknown, horizon: number): number {
+  if (from === undefined || from === null) return 1;
+  if (typeof from !== "number" || !Number.isFinite(from) || !Number.isInteger(from) || from < 1) {
+    throw new EngineError("input", `from (the first step of the window) must be a whole number of at least 1; got ${typeof from === "number" ? fmt(from) : String(from)}.`);
+  }
+  if (from > horizon) {
+    throw new EngineError("input", `from (${from}) is after horizon (${horizon}): the window from..horizon is empty. Give from ≤ horizon, e.g. from 8 and horizon 19 for January–December of next year after a history ending in May.`);
+  }
+  return from;
+}
+
+/**
+ * The total over steps from..H (default from 1; e.g. a year's budget from monthly forecasts, or
+ * steps 8..19 for next calendar year after a May history end): the mean is the sum of the per-step
+ * means (linearity of expectation, whatever the dependence between steps), each by `mean` (`auto`
+ * default: exact where it exists, Taylor with its accuracy stated where it does not; METHODS §9),
+ * with the fan's caution rule; medians do not add, so the
  * median and central interval of the total come from `paths` sample paths simulated on the
  * transformed scale with the model's own recursion (seeded), back-transformed and summed
  * (METHODS §4). The simulated total's mean and its Monte Carlo standard error are reported so
  * the simulation's precision is visible.
  * @example totalForecast(f, 12, { level: 95 }).mean.value // Σ of the 12 monthly means
  */
-export function totalForecast(f: Forecaster, horizon: number, options: { level?: number; paths?: number; seed?: number; mean?: MeanMethod | string } = {}): TotalForecast {
+export function totalForecast(f: Forecaster, horizon: number, options: { level?: number; paths?: number; seed?: number; mean?: MeanMethod | string; from?: number } = {}): TotalForecast {
   const H = checkHorizon(horizon, f.n);
+  const from = checkWindowStart(options.from, H);
   const level = options.level ?? 95;
   requireLevelPercent(level);
   const paths = options.paths ?? 10000;
@@ -161,6 +180,7 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
   let taylorSum: number | null = 0;
   const stepMeans: { h: number; m: MeanResult }[] = [];
   for (const s of f.forecast(H)) {
+    if (s.h < from) continue;
     const m = meanOf(f, s.mean, s.sd, meanMethod);
     stepMeans.push({ h: s.h, m });
     taylorSum = taylorSum !== null && m.taylor !== null ? taylorSum + m.taylor : null;
@@ -193,7 +213,7 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
   for (let r = 0; r < paths; r++) {
     let t = 0;
     const o = r * H;
-    for (let j = 0; j < H; j++) {
+    for (let j = from - 1; j < H; j++) {
       const w = sims[o + j];
       if (lam === null) t += w;
       else if (!boxCox) {
@@ -239,6 +259,7 @@ export function totalForecast(f: Forecaster, horizon: number, options: { level?:
     meanNote = "The total's mean is too large to represent.";
   }
   return {
+    from,
     horizon: H,
     level,
     mean: { value: meanSum, note: meanNote },
@@ -274,8 +295,9 @@ function meanRows(f: Forecaster, h: number): DescriptionRow[] {
 /**
  * A model's description as label/value rows: method, transform, λ (with the interval that belongs
  * to its estimate), shift, each parameter, σ, the log-likelihood and AICc on the original scale
- * (comparable across λ; METHODS §7) and on the transformed scale, n, and which mean is shown with
- * its accuracy at step 1 and one season (or 12 steps) ahead (METHODS §9).
+ * (comparable across λ; METHODS §7) and on the transformed scale, n (periods fitted), missing (how
+ * many of them were missing observations), and which mean is shown with its accuracy at step 1 and
+ * one season (or 12 steps) ahead (METHODS §9).
  * @example describeForecaster(f)[0] // ["method", "holt-winters"]
  */
 export function describeForecaster(f: Forecaster): DescriptionRow[] {
@@ -303,6 +325,7 @@ export function describeForecaster(f: Forecaster): DescriptionRow[] {
   rows.push(["AICc", f.fit ? f.fit.aicc : "n/a (constant series)"]);
   rows.push(["loglik (transformed scale)", f.model ? f.model.loglik : "n/a (constant series)"]);
   rows.push(["n", f.n]);
+  rows.push(["missing", f.missing]);
   if (arima && arima.nobs !== undefined) rows.push(["differences used", arima.nobs]);
   if (f.auto) rows.push(["AICc margin over next best", f.auto.margin]);
   const exists = exactMeanExists(f.transform);

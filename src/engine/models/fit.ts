@@ -3,7 +3,7 @@
 import { EngineError } from "../errors";
 import { fmt } from "../_lib/check";
 import { cap } from "../_lib/cells";
-import { cleanSeries } from "../series/clean";
+import { cleanSeries, listRows, observedValues, ZerosRule } from "../series/clean";
 import type { RawCell } from "../series/screen";
 import { isConstant } from "../series/positive";
 import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
@@ -42,6 +42,8 @@ export interface ForecastOptions {
   label?: string;
   /** Row number of the first cell, for messages (default 1). */
   firstRow?: number;
+  /** `missing`: zeros are missing observations (closed periods); default `keep` (zeros are values). */
+  zeros?: ZerosRule;
 }
 
 /** A fitted model with its transform. Immutable. */
@@ -61,6 +63,10 @@ export interface Forecaster {
   readonly n: number;
   readonly leadingBlanks: number;
   readonly trailingBlanks: number;
+  /** Missing observations inside the series (blanks, or zeros read as missing), handled by the model. */
+  readonly missing: number;
+  /** Zeros read as missing observations (`zeros: "missing"`). */
+  readonly zerosAsMissing: number;
   /** The last observed value on the original scale. */
   readonly lastValue: number;
   /** The model on the transformed scale; null for a constant series. */
@@ -74,6 +80,8 @@ export interface Forecaster {
   forecast(h: number): StepMoments[];
   /** Sample paths on the transformed scale, row-major paths × h. */
   simulate(h: number, paths: number, seed: number): Float64Array;
+  /** Sample paths driven by given standard-normal innovations (see FittedModel.simulateShocks); null when the model cannot. */
+  readonly simulateShocks: ((h: number, paths: number, seed: number, shocks: Float64Array) => Float64Array) | null;
 }
 
 const LAMBDA_WORDS = '"auto", "model", "guerrero", "mle" or "none"';
@@ -116,8 +124,9 @@ export function checkHorizon(h: unknown, n: number): number {
 
 /**
  * Fits a forecasting model to a positive series on a Box-Cox scale (or untransformed with
- * `lambda: "none"`): trims leading/trailing blanks (reported), refuses interior gaps (naming the
- * row), chooses λ (Guerrero 1993 / Box & Cox 1964), fits the method (METHODS §3: benchmarks, or
+ * `lambda: "none"`): trims leading/trailing blanks (reported), reads interior blanks (and, with
+ * `zeros: "missing"`, zeros) as missing observations (counted in `missing`; at most
+ * MAX_MISSING_SHARE of the periods; METHODS §8), chooses λ on the observed points (Guerrero 1993 / Box & Cox 1964), fits the method (METHODS §3: benchmarks, or
  * exponential smoothing by maximum likelihood, Hyndman et al. 2008), and returns an immutable
  * forecaster. A constant series gives a degenerate forecaster (σ = 0) with a note.
  * @example fitForecast(airPassengers, { method: "holt-winters", lambda: 0, period: 12 }).forecast(1)[0].mean // ≈ 6.10
@@ -135,11 +144,14 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   if (seasonalMethod && period < 2) {
     throw new EngineError("input", `${requestedMethod} is seasonal: give the period (12 for monthly data, 4 for quarterly).`);
   }
-  const clean = cleanSeries(cells, label, options.firstRow ?? 1);
+  const clean = cleanSeries(cells, label, options.firstRow ?? 1, { zeros: options.zeros });
   const y = clean.values;
+  const observed = observedValues(y);
   const notes: string[] = [];
   if (clean.leadingBlanks) notes.push(`${clean.leadingBlanks} leading blank${clean.leadingBlanks > 1 ? "s" : ""} skipped.`);
   if (clean.trailingBlanks) notes.push(`${clean.trailingBlanks} trailing blank${clean.trailingBlanks > 1 ? "s" : ""} skipped.`);
+  if (clean.zerosAsMissing) notes.push(clean.zerosAsMissing > 1 ? `${clean.zerosAsMissing} zeros read as missing observations (closed periods).` : "1 zero read as a missing observation (a closed period).");
+  if (clean.missing) notes.push(`${clean.missing} missing observation${clean.missing > 1 ? "s" : ""} inside the series (row${clean.missing > 1 ? "s" : ""} ${listRows(clean.missingRows)}) of ${y.length} periods: the model allows for ${clean.missing > 1 ? "them" : "it"} (not filled in); with exponential smoothing the uncertainty grows through each gap and later intervals include it.`);
   if (y.length < 2) throw new EngineError("input", `${label} is too short to forecast: it has ${y.length} value; at least 2 are needed (more for most methods).`);
   if (seasonalMethod && y.length < 2 * period) {
     throw new EngineError("input", `${requestedMethod} needs two full seasons (${2 * period} values with period ${period}); ${label} has ${y.length}.`);
@@ -158,16 +170,16 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   const shift = kind === "box-cox" ? (shiftSpec === "auto" ? autoShift(y) : shiftSpec) : 0;
   if (kind === "box-cox") {
     let firstBad = -1;
-    for (let i = 0; i < y.length; i++) if (!(y[i] + shift > 0)) { firstBad = i; break; }
+    for (let i = 0; i < y.length; i++) if (!Number.isNaN(y[i]) && !(y[i] + shift > 0)) { firstBad = i; break; }
     if (firstBad >= 0) {
       const row = (options.firstRow ?? 1) + clean.leadingBlanks + firstBad;
       const c = autoShift(y);
-      const zeros = y.filter((v) => v === 0).length;
-      const negatives = y.filter((v) => v < 0).length;
+      const zeros = observed.filter((v) => v === 0).length;
+      const negatives = observed.filter((v) => v < 0).length;
       const what = [zeros ? `${zeros} zero${zeros > 1 ? "s" : ""}` : "", negatives ? `${negatives} negative value${negatives > 1 ? "s" : ""}` : ""].filter(Boolean).join(" and ");
       throw new EngineError("input", shift === 0
         ? `${cap(label)} has ${what} (first: ${fmt(y[firstBad])} in row ${row}); Box-Cox needs values > 0. Use shift "auto" (adds ${fmt(c)}; command line --shift auto) or transform "yeo-johnson" (command line --transform yeo-johnson).`
-        : `${cap(label)} has ${fmt(y[firstBad])} in row ${row}, and ${fmt(y[firstBad])} + shift ${fmt(shift)} is not > 0. Use a shift above ${fmt(-Math.min(...y))}, shift "auto" (adds ${fmt(c)}) or transform "yeo-johnson".`);
+        : `${cap(label)} has ${fmt(y[firstBad])} in row ${row}, and ${fmt(y[firstBad])} + shift ${fmt(shift)} is not > 0. Use a shift above ${fmt(-Math.min(...observed))}, shift "auto" (adds ${fmt(c)}) or transform "yeo-johnson".`);
     }
   }
   if (shift !== 0) notes.push(`Box-Cox of the values + ${fmt(shift)} (shift${shiftSpec === "auto" ? " auto: −minimum + half the smallest step above it" : ""}); results are back on the original scale with the shift taken off.`);
@@ -177,7 +189,7 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
   let lambdaChoice: LambdaChoice | null = null;
   let chosen: { model: FittedModel; auto: AutoChoice | null } | null = null;
   let autoForm: Exclude<MethodName, "auto"> | null = null;
-  const constantY = isConstant(y);
+  const constantY = isConstant(observed);
   if (kind !== "none") {
     if (typeof lambdaSpec === "number") {
       transform = makeTransform(kind, lambdaSpec, shift);
@@ -192,13 +204,14 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
       if (lambdaSpec === "guerrero" && y.length < 2 * window) {
         throw new EngineError("input", `${label} is too short for Guerrero's method (${y.length} values; two windows of ${window} are needed). Use lambda "auto", "model" or "mle".`);
       }
-      if (y.length < MLE_MIN_LENGTH) throw new EngineError("input", `${label} is too short to choose λ (${y.length} values; at least ${MLE_MIN_LENGTH}). Give λ as a number (0 for the log) or "none".`);
+      if (observed.length < MLE_MIN_LENGTH) throw new EngineError("input", `${label} is too short to choose λ (${observed.length} observed values; at least ${MLE_MIN_LENGTH}). Give λ as a number (0 for the log) or "none".`);
       lambdaChoice = fitLambda(shift ? y.map((v) => v + shift) : y, { method: lambdaSpec, period, label });
       transform = makeTransform(kind, lambdaChoice.lambda, shift);
       lambdaSource = lambdaSpec;
       if (lambdaChoice.note) notes.push(lambdaChoice.note);
+      if (lambdaChoice.skippedWindows) notes.push(`Guerrero's method skipped ${lambdaChoice.skippedWindows} window${lambdaChoice.skippedWindows > 1 ? "s" : ""} of ${window} with too many missing points.`);
     } else {
-      if (y.length < MLE_MIN_LENGTH) throw new EngineError("input", `${label} is too short to choose λ (${y.length} values; at least ${MLE_MIN_LENGTH}). Give λ as a number (0 for the log) or "none".`);
+      if (observed.length < MLE_MIN_LENGTH) throw new EngineError("input", `${label} is too short to choose λ (${observed.length} observed values; at least ${MLE_MIN_LENGTH}). Give λ as a number (0 for the log) or "none".`);
       const a = chooseLambdaAuto(y, { kind, shift, method: requestedMethod, period, label });
       if (lambdaSpec === "auto") {
         transform = a.transform;
@@ -206,13 +219,13 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
         chosen = a.model.n === y.length ? { model: a.model, auto: a.auto } : null;
         autoForm = a.model.method;
         lambdaSource = "auto";
-        lambdaChoice = { lambda: a.lambda, method: "auto", interval: [null, null], level: 0.95, readable: a.lambda, loglik: a.fit.loglik, bounds: [-1, 1], onBound: null, window: null, n: y.length, note: a.note };
+        lambdaChoice = { lambda: a.lambda, method: "auto", interval: [null, null], level: 0.95, readable: a.lambda, loglik: a.fit.loglik, bounds: [-1, 1], onBound: null, window: null, skippedWindows: 0, n: observed.length, missing: clean.missing, note: a.note };
         notes.push(a.note);
       } else {
         const m = profileModelLambda(y, a.model.method, { kind, shift, period, label });
         transform = makeTransform(kind, m.lambda, shift);
         lambdaSource = "model";
-        lambdaChoice = { lambda: m.lambda, method: "model", interval: m.interval, level: m.level, readable: m.lambda, loglik: m.loglik, bounds: m.bounds, onBound: m.onBound, window: null, n: y.length, note: m.note };
+        lambdaChoice = { lambda: m.lambda, method: "model", interval: m.interval, level: m.level, readable: m.lambda, loglik: m.loglik, bounds: m.bounds, onBound: m.onBound, window: null, skippedWindows: 0, n: observed.length, missing: clean.missing, note: m.note };
         notes.push(`λ = ${fmt(m.lambda)} maximises the likelihood of ${a.model.method} on the original scale${requestedMethod === "auto" ? ` (the form auto chose)` : ""}.`);
         if (m.note) notes.push(m.note);
       }
@@ -224,10 +237,11 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
 
   const base = {
     label, requestedMethod, transform, lambda, lambdaSource, lambdaChoice, period, n: y.length,
-    leadingBlanks: clean.leadingBlanks, trailingBlanks: clean.trailingBlanks, lastValue: y[y.length - 1],
+    leadingBlanks: clean.leadingBlanks, trailingBlanks: clean.trailingBlanks, missing: clean.missing, zerosAsMissing: clean.zerosAsMissing,
+    lastValue: y[y.length - 1],
   };
 
-  if (isConstant(w)) {
+  if (isConstant(observedValues(w))) {
     notes.push(`${label} is constant (${fmt(y[0])}): the forecast is that value with no uncertainty (σ = 0).`);
     const v = w[0];
     const method = requestedMethod === "auto" ? "naive" : requestedMethod;
@@ -235,6 +249,7 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
       ...base, method, model: null, fit: null, auto: null, notes: Object.freeze(notes),
       forecast: (h: number): StepMoments[] => Array.from({ length: h }, (_, i) => ({ h: i + 1, mean: v, sd: 0 })),
       simulate: (h: number, paths: number): Float64Array => new Float64Array(paths * h).fill(v),
+      simulateShocks: (h: number, paths: number): Float64Array => new Float64Array(paths * h).fill(v),
     });
   }
 
@@ -276,5 +291,6 @@ export function fitForecast(cells: readonly RawCell[], options: ForecastOptions 
     notes: Object.freeze(notes),
     forecast: (h: number): StepMoments[] => m.forecast(h),
     simulate: (h: number, paths: number, seed: number): Float64Array => m.simulate(h, paths, seed),
+    simulateShocks: m.simulateShocks ? (h: number, paths: number, seed: number, shocks: Float64Array): Float64Array => (m.simulateShocks as NonNullable<FittedModel["simulateShocks"]>)(h, paths, seed, shocks) : null,
   });
 }

@@ -357,12 +357,12 @@ export function fitLambdaForModel(y: readonly number[], options: ModelLambdaOpti
   const notes = [a.note];
   if (options.lambdaMethod === "model") {
     if (p.note) notes.push(p.note);
-    return { lambda: p.lambda, method: "model", interval: p.interval, level: p.level, readable: p.lambda, loglik: p.loglik, bounds: p.bounds, onBound: p.onBound, window: null, n: y.length, note: `λ maximises the likelihood of ${a.model.method} on the original scale. ${notes.slice(1).join(" ")}`.trim() };
+    return { lambda: p.lambda, method: "model", interval: p.interval, level: p.level, readable: p.lambda, loglik: p.loglik, bounds: p.bounds, onBound: p.onBound, window: null, skippedWindows: 0, n: y.filter((v) => !Number.isNaN(v)).length, missing: y.filter((v) => Number.isNaN(v)).length, note: `λ maximises the likelihood of ${a.model.method} on the original scale. ${notes.slice(1).join(" ")}`.trim() };
   }
   const [lo, hi] = p.interval;
   if ((lo !== null && a.lambda < lo - 1e-6) || (hi !== null && a.lambda > hi + 1e-6)) {
     notes.push(`The profile likelihood of ${a.model.method} peaks at λ = ${fmt(p.lambda)}, and its interval leaves λ = ${fmt(a.lambda)} out; give lambda "model" to use the peak.`);
   }
   if (p.onBound) notes.push(p.note);
-  return { lambda: a.lambda, method: "auto", interval: p.interval, level: p.level, readable: a.lambda, loglik: a.fit.loglik, bounds: p.bounds, onBound: null, window: null, n: y.length, note: notes.join(" ") };
+  return { lambda: a.lambda, method: "auto", interval: p.interval, level: p.level, readable: a.lambda, loglik: a.fit.loglik, bounds: p.bounds, onBound: null, window: null, skippedWindows: 0, n: y.filter((v) => !Number.isNaN(v)).length, missing: y.filter((v) => Number.isNaN(v)).length, note: notes.join(" ") };
 }

@@ -1,5 +1,6 @@
-import { EngineError } from "../errors";
-import { fitSmoothing, minimumLength } from "./ets";
+import { EngineError, isEngineError } from "../errors";
+import { countMissing } from "../series/clean";
+import { checkGapsFit, fitSmoothing, minimumLength } from "./ets";
 import { SmoothingMethod } from "./methods";
 import type { FittedModel } from "./types";
 
@@ -20,12 +21,14 @@ const ORDER: SmoothingMethod[] = ["ses", "holt", "damped", "seasonal-ses", "holt
 
 /**
  * The smoothing model with the lowest AICc among those that fit the period and the length:
- * seasonal forms only when the period is ≥ 2 and the series holds two full seasons. AICc as in
+ * seasonal forms only when the period is ≥ 2 and the series holds two full seasons (and, with
+ * missing observations, one in every season). AICc as in
  * Hyndman et al. (2008), §7.1 (Hurvich & Tsai 1989 correction).
  * @example fitAuto(logAirPassengers, 12).model.method // "holt-winters"
  */
 export function fitAuto(w: readonly number[], period: number): AutoChoice {
   const candidates: Candidate[] = [];
+  const missing = countMissing(w);
   const skipped: AutoChoice["skipped"] = [];
   let best: FittedModel | null = null;
   for (const method of ORDER) {
@@ -36,11 +39,21 @@ export function fitAuto(w: readonly number[], period: number): AutoChoice {
       skipped.push({ method, reason: `needs at least ${need} values` });
       continue;
     }
+    if (missing > 0) {
+      try {
+        checkGapsFit(w, method, period);
+      } catch (e) {
+        if (!isEngineError(e)) throw e;
+        skipped.push({ method, reason: e.message });
+        continue;
+      }
+    }
     const model = fitSmoothing(w, method, period);
     candidates.push({ method, aicc: model.aicc, loglik: model.loglik, k: model.k });
     if (!best || model.aicc < best.aicc) best = model;
   }
   if (!best) {
+    if (missing > 0 && skipped.length) throw new EngineError("input", `No smoothing model can be fitted: ${skipped[0].reason}`);
     throw new EngineError("input", `The series is too short for any smoothing model: it has ${w.length} values, at least ${minimumLength("ses", 1)} are needed.`);
   }
   const sorted = candidates.map((c) => c.aicc).sort((a, b) => a - b);

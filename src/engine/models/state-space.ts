@@ -28,18 +28,28 @@ export interface StateSpaceForm {
 /**
  * Per-step forecast mean and sd from the general state-space formula, for h = 1..H.
  * Source: Hyndman et al. (2008), eqs. (6.1)–(6.2) for the class 1 (linear, additive-error) models.
+ * When the final state is itself uncertain (a series with missing observations, METHODS §8),
+ * `P` is its covariance divided by σ² (P̃_T) and adds w′F^{h−1} P̃_T F′^{h−1} w to each σ_h²/σ².
  * @example stateSpaceMoments({ F: [[1]], w: [1], g: [0.5], x: [10] }, 1, 3)[2].sd // √(1 + 2·0.25) ≈ 1.2247
  */
-export function stateSpaceMoments(form: StateSpaceForm, sigma2: number, H: number): StepMoments[] {
+export function stateSpaceMoments(form: StateSpaceForm, sigma2: number, H: number, P?: number[][]): StepMoments[] {
   const F = math.matrix(form.F);
   let rowW: Matrix = math.matrix([form.w]); // w′F^{j−1}, starting at j = 1
   const x = math.matrix(form.x.map((v) => [v]));
   const g = math.matrix(form.g.map((v) => [v]));
+  const Pm = P ? math.matrix(P) : null;
   const out: StepMoments[] = [];
   let sumC2 = 0;
   for (let h = 1; h <= H; h++) {
     const mu = (math.multiply(rowW, x) as Matrix).get([0, 0]) as number;
-    out.push({ h, mean: mu, sd: Math.sqrt(sigma2 * (1 + sumC2)) });
+    let stateVar = 0;
+    if (Pm) {
+      const wp = math.multiply(rowW, Pm) as Matrix;
+      const row = (rowW.valueOf() as number[][])[0];
+      const wpRow = (wp.valueOf() as number[][])[0];
+      for (let i = 0; i < row.length; i++) stateVar += wpRow[i] * row[i];
+    }
+    out.push({ h, mean: mu, sd: Math.sqrt(sigma2 * (1 + sumC2 + Math.max(stateVar, 0))) });
     const c = (math.multiply(rowW, g) as Matrix).get([0, 0]) as number;
     sumC2 += c * c;
     rowW = math.multiply(rowW, F) as Matrix;

@@ -6,10 +6,12 @@
 // autocorrelations (Jones 1980; Monahan 1984). Forecasts integrate the ARMA forecasts of the
 // differences back to levels; their variances use the filter's final state covariance (exact for
 // the finite sample, not the infinite-past approximation), and simulation runs the same recursion.
+import { countMissing } from "../../series/clean";
 import { EngineError } from "../../errors";
 import { createRandom } from "../../_lib/random";
 import { minimizeBfgs } from "../../_lib/bfgs";
 import { solveSymmetric } from "../../_lib/cholesky";
+import { choleskyLower } from "../../_lib/cholesky-factor";
 import type { FittedModel, StepMoments } from "../types";
 import { armaFilter, armaSystem, ArmaFilterResult, ArmaSystem } from "./kalman";
 import { ArimaOrder, arimaTitle, formatArimaOrder } from "./order";
@@ -40,7 +42,11 @@ export interface ArimaModel extends FittedModel {
   readonly notes: readonly string[];
 }
 
-/** Smallest number of observed differences for an order: enough for the parameters and some. */
+/**
+ * Smallest series an order accepts: the values used up by differencing, then enough for the
+ * parameters (twice their number plus two, at least 8; common practice).
+ * @example arimaMinimumLength({ p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false }) // 21
+ */
 export function arimaMinimumLength(o: ArimaOrder): number {
   const k = o.p + o.q + o.P + o.Q + (o.constant ? 1 : 0) + 1;
   return o.d + o.D * o.m + Math.max(2 * k + 2, 8);
@@ -185,6 +191,7 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
     method: formatArimaOrder(o) as `arima:${string}`,
     title,
     n,
+    missing: countMissing(w),
     period: o.m,
     params: Object.freeze(named),
     sigma,
@@ -345,7 +352,9 @@ function forecastMoments(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c:
 function simulateArima(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c: readonly number[], lastW: readonly number[], sigma: number, h: number, paths: number, seed: number): Float64Array {
   const { r, ar, R } = sys;
   const p = ar.length;
-  const chol = semidefiniteCholesky(filt.PNext, r);
+  // P_{n+1|n} is positive semi-definite by construction (a pivot zero to rounding gives a zero column)
+  const chol = choleskyLower(filt.PNext, r);
+  if (!chol) throw new EngineError("domain", "The ARIMA model's final state covariance is not positive semi-definite (a numerical breakdown); simulate with a smaller order or another method.");
   const rng = createRandom(seed);
   const out = new Float64Array(paths * h);
   const K = c.length - 1;
@@ -369,25 +378,4 @@ function simulateArima(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c: r
     }
   }
   return out;
-}
-
-/** Cholesky factor of a positive semi-definite matrix (zero columns where a pivot vanishes). */
-function semidefiniteCholesky(A: Float64Array, d: number): Float64Array {
-  const L = new Float64Array(d * d);
-  let scale = 0;
-  for (let i = 0; i < d; i++) scale = Math.max(scale, Math.abs(A[i * d + i]));
-  const tol = 1e-12 * (scale || 1);
-  for (let j = 0; j < d; j++) {
-    let s = A[j * d + j];
-    for (let k = 0; k < j; k++) s -= L[j * d + k] * L[j * d + k];
-    if (s <= tol) continue;
-    const ljj = sqrt(s);
-    L[j * d + j] = ljj;
-    for (let i = j + 1; i < d; i++) {
-      let t = A[i * d + j];
-      for (let k = 0; k < j; k++) t -= L[i * d + k] * L[j * d + k];
-      L[i * d + j] = t / ljj;
-    }
-  }
-  return L;
 }
