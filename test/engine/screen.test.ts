@@ -16,8 +16,17 @@ describe("screenSeries counts what a user needs to know", () => {
     expect(r.min).toBe(5);
     expect(r.nonPositive).toBe(0);
     expect(r.missing).toBe(1);
-    expect(r.fix).toBe("none");
+    // 4 observed values are too few for the λ rule lambda "auto" uses (the smoothing fit needs 5)
+    expect(r.fix).toBe("too-short");
+    expect(r.message).toMatch(/needs at least 5 observed values/);
     expect(r.message).toMatch(/1 blank inside the series \(at position 5\) is a missing observation/);
+  });
+  test("one blank inside a longer series is a missing observation, and λ is still suggested", () => {
+    const r = screenSeries([50, 62, null, 71, 80, 76, 90, 95, 88, 97, 104, 99], { label: "Shop" });
+    expect(r.missing).toBe(1);
+    expect(r.fix).toBe("none");
+    expect(r.suggestedLambda).not.toBeNull();
+    expect(r.message).toMatch(/1 blank inside the series \(at position 3\) is a missing observation/);
   });
   test("too many blanks inside the series (over 20%) ask to fill some", () => {
     const r = screenSeries([5, null, 6, null, 7, 8, 9, 10], { label: "Shop" });
