@@ -164,6 +164,7 @@ describe("messages", () => {
     expect(r.code).toBe(0);
     const j = JSON.parse(r.out);
     expect(j.misses).toBe(1);
-    expect(j.verdict).toMatch(/\(1 miss;/);
+    expect(j.verdict).toMatch(/\b1 miss\b/);
+    expect(j.verdict).not.toMatch(/\b1 misses\b/);
   });
 });

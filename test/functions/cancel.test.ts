@@ -32,7 +32,8 @@ async function settle<T>(p: Promise<T>): Promise<{ ok: true; value: T } | { ok: 
 }
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-const call = (f: (...a: any[]) => Promise<unknown>, args: unknown[], inv: Invocation): Promise<unknown> => f(...args, inv);
+// As Excel calls it: every declared argument (null where omitted), then the invocation.
+const call = (f: (...a: any[]) => Promise<unknown>, args: unknown[], inv: Invocation): Promise<unknown> => f(...args, ...new Array(Math.max(0, f.length - args.length)).fill(null), inv);
 
 beforeEach(() => {
   clearForecastCache();

@@ -70,7 +70,7 @@ export const publishedCommand: Command = {
     await emit(io, p, {
       command: "published",
       json: () => ({
-        months: res.months.map((mo, i) => ({ where: lines[i], h: mo.h, median: mo.median, lower: mo.lower, upper: mo.upper, mu: mo.mu, sigma: mo.sigma, mean: mo.mean, impliedLambda: mo.impliedLambda, asymmetry: mo.asymmetry })),
+        months: res.months.map((mo, i) => ({ line: lineNumber(lines[i]), h: mo.h, median: mo.median, lower: mo.lower, upper: mo.upper, mu: mo.mu, sigma: mo.sigma, mean: mo.mean, impliedLambda: mo.impliedLambda, asymmetry: mo.asymmetry })),
         total: {
           mean: res.mean, meanMethod: res.meanMethod, median: res.median, interval: res.interval, level: res.level,
           lambda: res.lambda, lambdaSource: res.lambdaSource, dependence: res.dependence, used: res.used,
@@ -79,9 +79,9 @@ export const publishedCommand: Command = {
           paths: res.paths, seed: res.seed, monteCarloError: res.monteCarloError, notes: res.notes,
         },
       }),
-      header: ["row", "where", "median", "lower", "upper", "mu", "sigma", "mean", "implied_lambda", "low", "high", "independent_low", "independent_high", "comonotone_low", "comonotone_high", "note"],
+      header: ["row", "line", "median", "lower", "upper", "mu", "sigma", "mean", "implied_lambda", "low", "high", "independent_low", "independent_high", "comonotone_low", "comonotone_high", "note"],
       rows: () => [
-        ...res.months.map((mo, i) => [mo.h, lines[i], mo.median, mo.lower, mo.upper, mo.mu, mo.sigma, mo.mean, mo.impliedLambda ?? "", "", "", "", "", "", "", ""]),
+        ...res.months.map((mo, i) => [mo.h, lineNumber(lines[i]), mo.median, mo.lower, mo.upper, mo.mu, mo.sigma, mo.mean, mo.impliedLambda ?? "", "", "", "", "", "", "", ""]),
         ["total", "", res.median, "", "", "", "", res.mean, "", res.interval[0], res.interval[1], res.independent.interval[0], res.independent.interval[1], res.comonotone.interval[0], res.comonotone.interval[1], [`${res.level}% interval; dependence ${res.used}; λ ${res.lambda} (${res.lambdaSource}); mean ${res.meanMethod}.`, ...res.notes].join(" ")],
       ],
       cautions: [...t.notes, ...res.notes],
@@ -89,3 +89,9 @@ export const publishedCommand: Command = {
     return 0;
   },
 };
+
+/** A CSV row's line number ("line 14" → 14); a workbook's place stays as text ("row 14 of sheet …"). */
+function lineNumber(where: string): number | string {
+  const m = /^line (\d+)$/.exec(where);
+  return m ? Number(m[1]) : where;
+}

@@ -72,7 +72,7 @@ function pct(x: number): string {
 export function verdictOf(v: VerdictInput): Verdict {
   const alpha = v.alpha ?? 0.05;
   const { kupiec: uc, independence: ind, conditional: cc } = v;
-  const counts = `${v.n - v.misses} of ${v.n} inside (${pct(v.coverage)}; ${pct(v.nominal)} promised), ${v.misses} misses`;
+  const counts = `${v.n - v.misses} of ${v.n} inside (${pct(v.coverage)}; ${pct(v.nominal)} promised), ${v.misses} ${v.misses === 1 ? "miss" : "misses"}`;
   const nums = `Kupiec p = ${pv(uc.p)}; independence p = ${ind.note && ind.lr === 0 ? "n/a" : pv(ind.p)}; conditional coverage p = ${pv(cc.p)}`;
   if (v.n < 2) {
     return { code: "too-few-rows", headline: VERDICT_HEADLINES["too-few-rows"], text: `Only ${v.n} row: no test can judge it (${counts}).`, colour: "yellow", countZone: v.zone };
