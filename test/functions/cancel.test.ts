@@ -31,8 +31,8 @@ async function settle<T>(p: Promise<T>): Promise<{ ok: true; value: T } | { ok: 
   }
 }
 
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 // As Excel calls it: every declared argument (null where omitted), then the invocation.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 const call = (f: (...a: any[]) => Promise<unknown>, args: unknown[], inv: Invocation): Promise<unknown> => f(...args, ...new Array(Math.max(0, f.length - args.length)).fill(null), inv);
 
 beforeEach(() => {
