@@ -604,7 +604,7 @@ export async function TOTALACROSS(values: any[][], horizon: number, method?: str
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const sd = optionalInteger(seed, "seed", 1, 0);
-    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Math.max(1, Array.isArray(values) ? values.length : 1));
     const start = checkWindowStart(optionalInteger(from, "from", 1, 1), h);
     const s = readSeries(values);
     if (s.series.length < 2) throw new EngineError("input", `FW.TOTALACROSS adds up several series, one per column; the range has ${s.series.length}. For one series use FW.TOTAL.`);

@@ -110,6 +110,12 @@ function observedMean(x: readonly number[]): number {
  */
 export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaParams & { sigma2?: number }, withStandardErrors = true): ArimaModel {
   const o = order;
+  // Checked before any lag polynomial is built: a seasonal period longer than the series (e.g. a
+  // mistyped period) must be refused, not allocated.
+  const seasonalLag = o.m * Math.max(o.P, o.Q, o.D);
+  if (w.length < arimaMinimumLength(o) || seasonalLag >= w.length) {
+    throw new EngineError("input", `${arimaTitle(o)} needs at least ${Math.max(arimaMinimumLength(o), seasonalLag + 1)} values (period ${o.m}); the series has ${w.length}. Use a smaller order, the right period, or a longer history.`);
+  }
   const c = differencingPolynomial(o.d, o.D, o.m);
   const K = c.length - 1;
   const n = w.length;
