@@ -21,7 +21,7 @@ export interface Command {
 }
 
 /** λ written as a word (a number between -5 and 5 is also accepted). */
-export const LAMBDA_WORDS = ["auto", "guerrero", "mle", "none"] as const;
+export const LAMBDA_WORDS = ["auto", "model", "guerrero", "mle", "none"] as const;
 
 /**
  * Checks --lambda: a number between -5 and 5 or one of LAMBDA_WORDS; a usage error otherwise.
@@ -67,9 +67,11 @@ export const COMMON = {
   period: { type: { kind: "int", min: 1 }, value: "N", help: "seasonal period: 12 for monthly data, 4 for quarterly", example: "12", default: "1" },
   horizon: { type: { kind: "int", min: 1 }, value: "H", help: "how many periods ahead to forecast", example: "12", required: "how many periods ahead to forecast, e.g. --horizon 12." },
   method: { type: { kind: "custom", check: checkMethod }, value: "M", help: "forecasting method, one of the Methods below", example: "holt-winters", default: "auto" },
-  lambda: { type: { kind: "custom", check: checkLambda }, value: "L", help: "Box-Cox λ: a number, auto, guerrero, mle or none", example: "0", default: "auto" },
+  lambda: { type: { kind: "custom", check: checkLambda }, value: "L", help: "λ: a number, auto (readable λ and form by AICc), model (the model's own maximum), guerrero, mle or none", example: "0", default: "auto" },
+  transform: { type: { kind: "choice", values: ["box-cox", "yeo-johnson", "none"] }, value: "box-cox|yeo-johnson|none", help: "the transform: yeo-johnson accepts zeros and negatives", example: "yeo-johnson", default: "box-cox" },
+  shift: { type: { kind: "text" }, value: "N|auto", help: "added to every value before Box-Cox (auto: −minimum + half the smallest step above it)", example: "auto", default: "0" },
   level: { type: { kind: "number" }, value: "P", help: "interval level in percent", example: "95", default: "95" },
-  mean: { type: { kind: "choice", values: ["taylor", "exact"] }, value: "taylor|exact", help: "how the mean is back-transformed", example: "exact", default: "taylor" },
+  mean: { type: { kind: "choice", values: ["auto", "exact", "taylor"] }, value: "auto|exact|taylor", help: "which mean: auto is exact where it exists (λ ≥ 0), Taylor with its accuracy stated otherwise", example: "exact", default: "auto" },
   zeros: { type: { kind: "choice", values: ["keep", "missing"] }, value: "keep|missing", help: "missing: read each zero as a missing observation (a closed period)", example: "missing", default: "keep" },
   series: { type: { kind: "text" }, value: "NAME[,NAME]", help: "only these series (column names, comma-separated)", example: "\"Harbour Street\"" },
   digits: { type: { kind: "custom", check: checkDigits }, value: "N", help: "significant digits of printed numbers (JSON and workbooks keep full precision)", example: "6", default: "10" },

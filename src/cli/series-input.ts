@@ -109,7 +109,7 @@ export interface SeriesFit {
 }
 
 /**
- * Fits every series of the file with --method, --lambda and --period; a series that cannot be
+ * Fits every series of the file with --method, --lambda, --transform, --shift and --period; a series that cannot be
  * fitted keeps its message.
  * @example fitAll(parsed, data)[0].f?.method // "holt-winters"
  */
@@ -117,15 +117,18 @@ export function fitAll(p: ParsedArgs, data: SeriesData): SeriesFit[] {
   const period = p.int("period") ?? 1;
   const method = p.value<string>("method") ?? "auto";
   const lambda = p.value<string>("lambda") ?? "auto";
+  const transform = p.has("transform") ? p.choice("transform") : undefined;
+  const shift = p.text("shift");
   const zeros = zerosOf(p);
   return data.names.map((name, j) => {
     try {
       const cells = data.column(j);
-      if (lambda !== "none") {
+      if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined) {
+        // Say where the first value ≤ 0 is, by the file's line, and what works.
         const screen = screenSeries(cells, { period, label: name, where: lineOf(data), zeros, zerosOption: ZEROS_OPTION_CLI });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
-      const f = fitForecast(cells, { method, lambda, period, label: name, zeros });
+      const f = fitForecast(cells, { method, lambda, transform, shift, period, label: name, zeros });
       return { name, f };
     } catch (e) {
       return { name, error: atLines(errorMessage(e), data) };

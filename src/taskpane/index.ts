@@ -63,12 +63,19 @@ function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, cls?: 
   return e;
 }
 
+/** The transform select as engine options: Box-Cox, Box-Cox with shift "auto", or Yeo-Johnson. */
+function transformControl(): { transform: string; shift: string } {
+  const v = $<HTMLSelectElement>("fw-transform").value;
+  return v === "box-cox-shift" ? { transform: "box-cox", shift: "auto" } : { transform: v, shift: "" };
+}
+
 function controls(): FanControls {
   const mode = $<HTMLSelectElement>("fw-lambda-mode").value;
   return {
     series: state.series,
     method: $<HTMLSelectElement>("fw-method").value,
     lambda: mode === "typed" ? $<HTMLInputElement>("fw-lambda-value").value : mode,
+    ...transformControl(),
     horizon: Number($<HTMLInputElement>("fw-horizon").value),
     period: Number($<HTMLInputElement>("fw-period").value),
     levels: $<HTMLInputElement>("fw-levels").value,
@@ -181,7 +188,7 @@ function renderFan(): void {
     const doc = new DOMParser().parseFromString(view.svg, "image/svg+xml");
     chart.replaceChildren(document.importNode(doc.documentElement, true));
     readout.replaceChildren();
-    for (const [k, v] of [["method", view.readout.method], ["λ", view.readout.lambda], ["σ", view.readout.sigma], ["AICc", view.readout.aicc]]) {
+    for (const [k, v] of [["method", view.readout.method], ["λ", view.readout.lambda], ["σ", view.readout.sigma], ["AICc", view.readout.aicc], ["mean", view.readout.mean]]) {
       readout.appendChild(el("dt", k));
       readout.appendChild(el("dd", v));
     }
@@ -455,7 +462,7 @@ async function runBacktest(): Promise<void> {
   try {
     let last = 0;
     const b = await backtestAsync(state.data.columns[c.series], Math.min(c.horizon, 12), {
-      method: c.method, lambda: c.lambda === "typed" ? "auto" : c.lambda, period: c.period, zeros: c.zeros, level: 80, label: state.data.names[c.series],
+      method: c.method, lambda: c.lambda === "typed" ? "auto" : c.lambda, transform: c.transform, shift: c.shift || undefined, period: c.period, zeros: c.zeros, level: 80, label: state.data.names[c.series],
       onProgress: (done, total) => { bar.max = total; bar.value = done; },
     }, () => {
       const now = performance.now();
@@ -546,6 +553,7 @@ function exportPng(): void {
 function wire(): void {
   $("fw-series").addEventListener("change", (e) => selectSeries(Number((e.target as HTMLSelectElement).value)));
   $("fw-method").addEventListener("change", renderFan);
+  $("fw-transform").addEventListener("change", renderFan);
   $("fw-lambda-mode").addEventListener("change", () => { showLambdaTyped(); renderFan(); });
   $("fw-lambda-value").addEventListener("input", () => {
     $<HTMLInputElement>("fw-lambda-slider").value = $<HTMLInputElement>("fw-lambda-value").value;

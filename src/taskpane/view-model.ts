@@ -110,6 +110,10 @@ export interface FanControls {
   period: number;
   /** Levels in percent, as text ("50,80,95"). */
   levels: string;
+  /** "box-cox" (default), "yeo-johnson" or "none". */
+  transform?: string;
+  /** "" or "0" (none), "auto", or a number as text. */
+  shift?: string;
   /** "missing": zeros are missing observations (the "Treat zeros as missing" box). Default "keep". */
   zeros?: ZerosRule;
 }
@@ -120,8 +124,8 @@ export type FanView =
       ok: true;
       svg: string;
       fan: FanTable;
-      /** Readout: method, λ, σ, AICc. */
-      readout: { method: string; lambda: string; sigma: string; aicc: string };
+      /** Readout: method, λ, σ, AICc (original scale), and which mean is shown at the last step. */
+      readout: { method: string; lambda: string; sigma: string; aicc: string; mean: string };
       /** The mean-vs-median gap at the last step, in plain words. */
       gap: string;
       notes: string[];
@@ -134,7 +138,7 @@ export type FanView =
 function lambdaOption(text: string): string | number {
   const t = text.trim().toLowerCase();
   if (t === "" || t === "auto") return "auto";
-  if (t === "guerrero" || t === "mle" || t === "none") return t;
+  if (t === "guerrero" || t === "mle" || t === "model" || t === "none") return t;
   const v = Number(t);
   return Number.isFinite(v) ? v : text;
 }
@@ -148,6 +152,7 @@ export function gapSentence(fan: FanTable): string {
   const mean = last.mean.value;
   const median = last.median.value;
   if (mean === null || median === null || median === 0) return last.mean.note ?? "The mean is not available at the last step.";
+  if (last.meanDetail && last.meanDetail.accuracy) return last.meanDetail.accuracy;
   const d = mean - median;
   const pct = (100 * d) / median;
   if (Math.abs(pct) < 0.05) return `At step ${last.h} the mean and the median agree to within 0.05%: the transform barely bends this forecast.`;
@@ -167,7 +172,7 @@ export function fanView(data: PaneData, c: FanControls): FanView {
   try {
     const cells = data.columns[c.series];
     if (!cells) return { ok: false, message: "Choose a series." };
-    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows, zeros: c.zeros });
+    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), transform: c.transform || undefined, shift: c.shift || undefined, period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows, zeros: c.zeros });
     const fan = fanTable(f, c.horizon, { levels: c.levels });
     const history: number[] = [];
     const labels: string[] = [];
@@ -193,7 +198,8 @@ export function fanView(data: PaneData, c: FanControls): FanView {
         method: f.method,
         lambda: f.lambda === null ? "none" : `${f.lambda.toFixed(3)} (${f.lambdaSource})`,
         sigma: f.model ? f.model.sigma.toPrecision(3) : "0",
-        aicc: typeof aicc === "number" ? aicc.toFixed(1) : String(aicc ?? "–"),
+        aicc: typeof aicc === "number" ? `${aicc.toFixed(1)} (original scale)` : String(aicc ?? "–"),
+        mean: meanReadout(fan),
       },
       gap: gapSentence(fan),
       notes: f.notes.slice(),
@@ -204,6 +210,21 @@ export function fanView(data: PaneData, c: FanControls): FanView {
     if (isEngineError(e)) return { ok: false, message: e.message };
     return { ok: false, message: `Fanwise could not draw this fan (${e instanceof Error ? e.message : String(e)}).` };
   }
+}
+
+/**
+ * Which mean the fan shows at its last step, and how far Taylor and exact differ there.
+ * @example meanReadout(fan) // "exact (Taylor would be 3.1% lower)"
+ */
+export function meanReadout(fan: FanTable): string {
+  const m = fan.rows[fan.rows.length - 1].meanDetail;
+  if (m.value === null) return "not available";
+  if (m.used === "exact") {
+    if (m.taylor === null || m.exact === null || m.exact === 0) return "exact";
+    const d = (100 * (m.taylor - m.exact)) / Math.abs(m.exact);
+    return Math.abs(d) < 0.05 ? "exact (Taylor agrees)" : `exact (Taylor would be ${Math.abs(d).toFixed(1)}% ${d < 0 ? "lower" : "higher"})`;
+  }
+  return `Taylor (correction ${m.correction === null ? "–" : (100 * m.correction).toFixed(1)}% of the median${m.poleProbability > 0 ? `; ${(100 * m.poleProbability).toPrecision(2)}% past the pole` : ""})`;
 }
 
 function quote(s: string): string {
@@ -220,6 +241,11 @@ function quote(s: string): string {
 export function fanFormula(address: string, c: FanControls): string {
   const l = lambdaOption(c.lambda);
   const values = c.zeros === "missing" ? `IF(${address}=0,"",${address})` : address;
-  return `=${FW_NAMESPACE}.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
+  const base = `=${FW_NAMESPACE}.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period}`;
+  const t = c.transform && c.transform !== "box-cox" ? c.transform : "";
+  const sh = c.shift && c.shift !== "0" ? c.shift : "";
+  if (!t && !sh) return `${base})`;
+  const shiftArg = sh === "" ? "" : Number.isFinite(Number(sh)) ? sh : quote(sh);
+  return `${base},FALSE,${t ? quote(t) : ""},${shiftArg})`.replace(/,+\)$/, ")");
 }
 

@@ -87,9 +87,9 @@ describe("exit codes", () => {
   });
   const usage: [string, string[], RegExp][] = [
     ["an unknown method", ["fan", MIXED, "--horizon", "3", "--method", "hw"], /--method must be one of mean, naive, .*damped-holt-winters, .*auto, or an ARIMA order such as arima:0,1,1; got "hw"\./],
-    ["an unknown λ", ["fan", MIXED, "--horizon", "3", "--lambda", "log"], /--lambda must be a number, or auto, guerrero, mle, none; got "log"\./],
+    ["an unknown λ", ["fan", MIXED, "--horizon", "3", "--lambda", "log"], /--lambda must be a number, or auto, model, guerrero, mle, none; got "log"\./],
     ["a λ out of range", ["total", MIXED, "--horizon", "3", "--lambda", "7"], /--lambda must be between -5 and 5; got 7/],
-    ["an unknown mean method", ["fan", MIXED, "--horizon", "3", "--mean", "median"], /--mean must be taylor or exact; got "median"/],
+    ["an unknown mean method", ["fan", MIXED, "--horizon", "3", "--mean", "median"], /--mean must be auto, exact or taylor; got "median"/],
     ["an unknown option", ["backtest", MIXED, "--horizon", "1", "--origins", "3"], /Unknown option --origins\. Options here: --horizon/],
     ["a level typed as a fraction", ["total", MIXED, "--horizon", "3", "--level", "0.8"], /give 80 for an 80% interval, not 0\.8/],
     ["an unknown series", ["fan", MIXED, "--horizon", "3", "--series", "North"], /--series: no series named "North" \(did you mean "north"\? .*Series in this file: north, south, closed\./],

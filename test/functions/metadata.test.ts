@@ -19,17 +19,18 @@ const expected: Record<string, [string, boolean][]> = {
   BTQUANTILE: [["mu", false], ["sd", false], ["lambda", false], ["p", false]],
   MEANFROMINTERVAL: [["median", false], ["lower", false], ["upper", false], ["level", false], ["lambda", true], ["method", true]],
   IMPLIEDLAMBDA: [["median", false], ["lower", false], ["upper", false]],
-  FAN: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["levels", true], ["period", true], ["header", true]],
-  QUANTILES: [["values", false], ["horizon", false], ["probs", false], ["method", true], ["lambda", true], ["period", true]],
-  TOTAL: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["seed", true], ["from", true]],
+  FAN: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["levels", true], ["period", true], ["header", true], ["transform", true], ["shift", true], ["mean", true]],
+  QUANTILES: [["values", false], ["horizon", false], ["probs", false], ["method", true], ["lambda", true], ["period", true], ["transform", true], ["shift", true]],
+  TOTAL: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["seed", true], ["from", true], ["transform", true], ["shift", true], ["mean", true]],
   TOTALFROMINTERVALS: [["medians", false], ["lowers", false], ["uppers", false], ["level", false], ["lambda", true], ["dependence", true]],
   TOTALACROSS: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["seed", true], ["from", true]],
   SMEARMEAN: [["mu", false], ["residuals", false], ["lambda", false]],
-  MODELINFO: [["values", false], ["method", true], ["lambda", true], ["period", true]],
+  MODELINFO: [["values", false], ["method", true], ["lambda", true], ["period", true], ["transform", true], ["shift", true]],
   COVERAGE: [["actuals", false], ["lower", false], ["upper", false], ["level", false], ["groups", true], ["horizons", true]],
   INTERVALSCORE: [["actuals", false], ["lower", false], ["upper", false], ["level", false], ["groups", true], ["horizons", true]],
   PINBALL: [["actuals", false], ["quantiles", false], ["p", false]],
-  BACKTEST: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["first", true]],
+  CALIBRATION: [["actuals", false], ["quantiles", false], ["probs", false]],
+  BACKTEST: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["first", true], ["transform", true], ["shift", true], ["mean", true]],
 };
 
 test("functions.json was built (npm run build) and lists every FW function with its parameters", () => {

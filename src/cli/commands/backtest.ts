@@ -16,6 +16,9 @@ export const backtestCommand: Command = {
     level: COMMON.level,
     period: COMMON.period,
     first: { type: { kind: "int", min: 2 }, value: "N", help: "length of the first fitting window", example: "24" },
+    transform: COMMON.transform,
+    shift: COMMON.shift,
+    mean: COMMON.mean,
     zeros: COMMON.zeros,
     ...IO_OPTIONS,
   },
@@ -28,7 +31,7 @@ export const backtestCommand: Command = {
     const data = await readSeriesFile(p, io);
     const results = data.names.map((_, j) => {
       try {
-        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.value<string>("method") ?? "auto", lambda: p.value<string>("lambda") ?? "auto", level, period, first, label: data.names[j], zeros: zerosOf(p) }) };
+        return { name: data.names[j], b: backtest(data.column(j), H, { method: p.value<string>("method") ?? "auto", lambda: p.value<string>("lambda") ?? "auto", transform: p.choice("transform"), shift: p.text("shift"), mean: p.choice("mean") ?? "auto", level, period, first, label: data.names[j], zeros: zerosOf(p) }) };
       } catch (e) {
         if (isEngineError(e) && /^horizon|must be a percentage|is in percent/.test(e.message)) throw e;
         return { name: data.names[j], error: errorMessage(e) };

@@ -15,6 +15,8 @@ export const FAN_OPTIONS = {
   levels: { type: { kind: "text" as const }, value: "80,95", help: "interval levels in percent", example: "80,95", default: "80,95" },
   period: COMMON.period,
   mean: COMMON.mean,
+  transform: COMMON.transform,
+  shift: COMMON.shift,
   zeros: COMMON.zeros,
   series: COMMON.series,
   sheet: COMMON.sheet,
@@ -45,6 +47,8 @@ export interface SeriesFan {
   table?: FanTable;
   /** Missing observations inside the series. */
   missing?: number;
+  /** The transform the series was forecast on. */
+  transform?: { kind: string; lambda: number | null; shift: number };
   error?: string;
 }
 
@@ -56,7 +60,7 @@ export interface SeriesFan {
  */
 export async function computeFans(p: ParsedArgs, io: Io, first?: number): Promise<{ data: SeriesData; fans: SeriesFan[]; H: number; names: string[] }> {
   const H = p.int("horizon") as number;
-  const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
+  const mean = p.choice("mean") ?? "auto";
   const levels = p.text("levels");
   const all = await readSeriesFile(p, io);
   const data = first === undefined ? all : { ...all, names: all.names.slice(0, first), labelColumn: all.labelColumn };
@@ -64,7 +68,7 @@ export async function computeFans(p: ParsedArgs, io: Io, first?: number): Promis
     if (!x.f) return { name: x.name, j, error: x.error as string };
     try {
       const table = fanTable(x.f, H, { levels, mean });
-      return { name: x.name, j, table: { ...table, notes: table.notes.map((n) => atLines(n, data)) }, missing: x.f.missing };
+      return { name: x.name, j, table: { ...table, notes: table.notes.map((n) => atLines(n, data)) }, missing: x.f.missing, transform: { kind: x.f.transform.kind, lambda: x.f.transform.lambda, shift: x.f.transform.shift } };
     } catch (e) {
       if (isEngineError(e) && e.code === "input" && /horizon|level/.test(e.message)) throw e; // the same for every series
       return { name: x.name, j, error: errorMessage(e) };
@@ -101,6 +105,7 @@ export const fanCommand: Command = {
           series[t.name] = {
             method: tb.method,
             lambda: tb.lambda,
+            transform: t.transform,
             sigma: tb.sigma,
             missing: t.missing,
             meanMethod: tb.meanMethod,
@@ -108,6 +113,7 @@ export const fanCommand: Command = {
               h: r.h,
               ...(periodsOf.has(t.name) ? { period: periodsOf.get(t.name)?.[i] } : {}),
               mean: val(r.mean),
+              meanUsed: r.meanDetail.used,
               median: val(r.median),
               intervals: Object.fromEntries(Object.entries(r.intervals).map(([k, v]) => [k, [val(v[0]), val(v[1])]])),
               ...(cellNotes(r).length ? { notes: cellNotes(r) } : {}),

@@ -1,17 +1,17 @@
 // fanwise total: the total over the next H periods (or steps from..to) — its mean (the sum of the
 // means), median and interval from seeded simulated paths; with --across, one more row for the
 // total over all series, simulated jointly.
-import { alignSeries, checkWindowStart, EngineError, fitForecast, Forecaster, isEngineError, totalAcross, totalForecast, AcrossTotal } from "../../engine";
+import { alignSeries, checkWindowStart, EngineError, fitForecast, Forecaster, isEngineError, totalAcross, totalForecast, AcrossTotal, MeanMethod } from "../../engine";
 import { Command, COMMON, IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
-import { atLines, errorMessage, fitAll, readSeriesFile, SeriesFit } from "../series-input";
+import { atLines, errorMessage, fitAll, readSeriesFile, SeriesFit, zerosOf } from "../series-input";
 import type { SeriesData } from "../table";
 import type { ParsedArgs } from "../options";
 
 interface AcrossRow { name: string; t?: AcrossTotal; error?: string; notes: string[] }
 
 /** The total over every series that could be fitted, aligned on their latest common period. */
-function acrossRow(p: ParsedArgs, data: SeriesData, fits: SeriesFit[], H: number, from: number, level: number, seed: number, paths: number, mean: "taylor" | "exact"): AcrossRow {
+function acrossRow(p: ParsedArgs, data: SeriesData, fits: SeriesFit[], H: number, from: number, level: number, seed: number, paths: number, mean: MeanMethod): AcrossRow {
   const ok = fits.map((x, j) => ({ x, j })).filter(({ x }) => x.f);
   const left = fits.filter((x) => !x.f).map((x) => x.name);
   const name = left.length ? `all series except ${left.join(", ")}` : "all series";
@@ -21,7 +21,7 @@ function acrossRow(p: ParsedArgs, data: SeriesData, fits: SeriesFit[], H: number
     if (aligned.note) notes.push(atLines(aligned.note, data));
     const period = p.int("period") ?? 1;
     const fs: Forecaster[] = ok.map(({ x }, k) => (aligned.cut.includes(x.name)
-      ? fitForecast(aligned.columns[k], { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", period, label: x.name })
+      ? fitForecast(aligned.columns[k], { method: p.value<string>("method") ?? "auto", lambda: p.value<string>("lambda") ?? "auto", transform: p.choice("transform"), shift: p.text("shift"), period, label: x.name, zeros: zerosOf(p) })
       : (x.f as Forecaster)));
     const t = totalAcross(fs, H, { from, level, seed, paths, mean });
     return { name, t, notes: [...notes, ...t.notes] };
@@ -46,6 +46,8 @@ export const totalCommand: Command = {
     seed: { type: { kind: "int", min: 0 }, value: "S", help: "seed of the simulated paths (same seed, same result)", example: "7", default: "1" },
     paths: { type: { kind: "int", min: 100 }, value: "P", help: "number of simulated paths", example: "20000", default: "10000" },
     mean: COMMON.mean,
+    transform: COMMON.transform,
+    shift: COMMON.shift,
     zeros: COMMON.zeros,
     ...IO_OPTIONS,
   },
@@ -63,14 +65,14 @@ export const totalCommand: Command = {
     const level = p.num("level") ?? 95;
     const seed = p.int("seed") ?? 1;
     const paths = p.int("paths") ?? 10000;
-    const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
+    const mean = (p.choice("mean") ?? "auto") as MeanMethod;
     const data = await readSeriesFile(p, io);
     const fits = fitAll(p, data);
     const results = fits.map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
         const t = totalForecast(x.f, H, { level, seed, paths, mean, from });
-        return { name: x.name, method: x.f.method, lambda: x.f.lambda, missing: x.f.missing, t: { ...t, notes: t.notes.map((n) => atLines(n, data)) } };
+        return { name: x.name, method: x.f.method, lambda: x.f.lambda, transform: x.f.transform, missing: x.f.missing, t: { ...t, notes: t.notes.map((n) => atLines(n, data)) } };
       } catch (e) {
         if (isEngineError(e) && e.code === "input" && /horizon|level|paths|seed|^from/.test(e.message)) throw e;
         return { name: x.name, error: errorMessage(e) };
@@ -86,7 +88,8 @@ export const totalCommand: Command = {
           if (!("t" in r) || !r.t) { series[r.name] = { error: r.error }; continue; }
           series[r.name] = {
             method: r.method, lambda: r.lambda, missing: r.missing, from: r.t.from, horizon: r.t.horizon,
-            mean: r.t.mean.value, median: r.t.median, interval: r.t.interval, level: r.t.level,
+            transform: { kind: r.transform.kind, lambda: r.transform.lambda, shift: r.transform.shift },
+            mean: r.t.mean.value, meanUsed: r.t.meanUsed, median: r.t.median, interval: r.t.interval, level: r.t.level,
             paths: r.t.paths, seed: r.t.seed, simulatedMean: r.t.simulatedMean, monteCarloError: r.t.monteCarloError,
             notes: [...(r.t.mean.note ? [r.t.mean.note] : []), ...r.t.notes],
           };

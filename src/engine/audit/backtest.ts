@@ -6,6 +6,8 @@ import { cleanSeries } from "../series/clean";
 import type { RawCell } from "../series/screen";
 import { benchmarkMinimumLength } from "../models/benchmarks";
 import { minimumLength } from "../models/ets";
+import type { MeanMethod } from "../distribution/backtransform";
+import { parseMeanMethod } from "../distribution/mean";
 import { fanTable } from "../models/fan";
 import { fitForecast, ForecastOptions, checkHorizon } from "../models/fit";
 import { isBenchmark, parseMethod } from "../models/methods";
@@ -69,6 +71,8 @@ export interface BacktestOptions extends ForecastOptions {
    * series, the length that leaves the latest {@link DEFAULT_ORIGINS} origins).
    */
   first?: number;
+  /** Which mean is scored: `auto` (default: exact where it exists, Taylor otherwise), `exact` or `taylor`. */
+  mean?: MeanMethod | string;
   /** Called after each origin (done, total), e.g. for a progress bar. */
   onProgress?: (done: number, total: number) => void;
 }
@@ -171,6 +175,7 @@ export async function backtestAsync(cells: readonly RawCell[], horizon: number, 
 
 function* backtestRun(cells: readonly RawCell[], horizon: number, options: BacktestOptions): Generator<number, Backtest, void> {
   const { y, H, first, level, origins, note } = prepare(cells, horizon, options);
+  const mean = parseMeanMethod(options.mean);
   const acc = Array.from({ length: H }, () => ({ n: 0, inside: 0, is: 0, emean: 0, emed: 0, amean: 0, amed: 0, hits: [] as number[] }));
   let failures = 0;
   let failureNote: string | null = null;
@@ -187,8 +192,8 @@ function* backtestRun(cells: readonly RawCell[], horizon: number, options: Backt
     }
     try {
       // missing observations (NaN) go back to blanks, which the fit reads as missing
-      const f = fitForecast(y.slice(0, t).map((v) => (Number.isNaN(v) ? null : v)), { method: options.method, lambda: options.lambda, period: options.period, label: options.label });
-      const fan = fanTable(f, steps, { levels: [level] });
+      const f = fitForecast(y.slice(0, t).map((v) => (Number.isNaN(v) ? null : v)), { method: options.method, lambda: options.lambda, transform: options.transform, shift: options.shift, period: options.period, label: options.label });
+      const fan = fanTable(f, steps, { levels: [level], mean });
       fan.rows.forEach((r, j) => {
         const actual = y[t + j];
         const [lo, hi] = r.intervals[String(level)];
