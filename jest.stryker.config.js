@@ -13,6 +13,7 @@ module.exports = {
   ...base,
   ...(only.length ? { testMatch: only.map((g) => `<rootDir>/${g}`) } : {}),
   globalSetup: undefined,
+  maxWorkers: 1, // the mutation tool runs its own parallel test processes (stryker.config.json concurrency)
   reporters: ["default"],
   testPathIgnorePatterns: [
     "/node_modules/",

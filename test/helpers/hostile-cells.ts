@@ -92,6 +92,18 @@ export const anyRange: fc.Arbitrary<unknown> = fc.oneof(
   { weight: 1, arbitrary: anyCell },
 );
 
+/**
+ * Like anyRange, with plausible series drawn less often (about one call in six): for functions whose
+ * every plausible series costs dozens of model fits (λ chosen with the form, METHODS §7), so 10,000
+ * calls stay within CI's budget while the deep path is still reached well over a thousand times.
+ */
+export const costlyRange: fc.Arbitrary<unknown> = fc.oneof(
+  { weight: 2, arbitrary: plausibleSeries(3) },
+  { weight: 6, arbitrary: randomRange },
+  { weight: 2, arbitrary: raggedRange },
+  { weight: 2, arbitrary: anyCell },
+);
+
 /** Like anyRange, but its plausible series are single columns (for functions that take one series). */
 export const anyColumn: fc.Arbitrary<unknown> = fc.oneof(
   { weight: 7, arbitrary: plausibleSeries(1) },
