@@ -1,6 +1,6 @@
 // Output of the command line: the streams (replaceable in tests), one-line messages, and the
 // choice between a CSV table and JSON.
-import { toCsv } from "./csv";
+import { toCsv } from "../io";
 
 /** Output streams, replaceable in tests. */
 export interface Io {

@@ -1,7 +1,7 @@
 // Reading the series of a file for a command, and fitting every series with the shared options
 // (--method, --lambda, --period), each series keeping its own message when it cannot be used.
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
-import { csvSeries, CsvSeries } from "./csv";
+import { readTable, SeriesTable as CsvSeries } from "../io";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs } from "./options";
 
@@ -19,7 +19,7 @@ export function fileArgument(p: ParsedArgs, example: string): string {
  * @example readSeriesFile(parsed).names // ["Harbour Street", …]
  */
 export function readSeriesFile(p: ParsedArgs): CsvSeries {
-  return csvSeries(readCsvFile(fileArgument(p, "fanwise screen sales.csv")));
+  return readTable(readCsvFile(fileArgument(p, "fanwise screen sales.csv")));
 }
 
 /**
@@ -27,7 +27,7 @@ export function readSeriesFile(p: ParsedArgs): CsvSeries {
  * @example lineOf(data)(0) // "line 2"
  */
 export function lineOf(data: CsvSeries): (i: number) => string {
-  return (i) => `line ${data.line(i)}`;
+  return data.where;
 }
 
 /**
@@ -35,7 +35,13 @@ export function lineOf(data: CsvSeries): (i: number) => string {
  * @example atLines("zeros at rows 3, 5", data) // "zeros at lines 4, 6"
  */
 export function atLines(message: string, data: CsvSeries): string {
-  return message.replace(/\b(rows?) (\d+(?:, \d+)*)/g, (_m, word: string, list: string) => `${word === "rows" ? "lines" : "line"} ${list.split(", ").map((r) => data.line(Number(r) - 1)).join(", ")}`);
+  return message.replace(/\b(rows?) (\d+(?:, \d+)*)/g, (_m, word: string, list: string) => {
+    const rows = list.split(", ").map((r) => Number(r) - 1);
+    const lines = rows.map((i) => data.line(i));
+    // A skipped period has no line: it is named by its date ("1950-06 (no row in the file)").
+    if (lines.every((l) => l !== null)) return `${word === "rows" ? "lines" : "line"} ${lines.join(", ")}`;
+    return rows.map((i) => data.where(i)).join(", ");
+  });
 }
 
 /** How the command line names the zeros option in advice. */

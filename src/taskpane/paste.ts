@@ -1,29 +1,28 @@
-// The stand-alone pane's paste box: tab- or comma-separated text copied from any spreadsheet.
+// The stand-alone pane's paste box: a table copied from any spreadsheet (tab-separated), or CSV text
+// with commas or semicolons; read by the shared reader (src/io) like a file.
 import { EngineError } from "../engine";
-import { csvSeries, parseCsv } from "../cli/csv";
+import { DecimalMark, readCsvText } from "../io";
 import type { PaneData } from "./view-model";
 
 /**
- * Reads pasted text: tabs if the first line has any (a spreadsheet copy), else commas. The first
- * row names the columns; a column of labels (dates, periods) labels the rows.
+ * Reads pasted text: the delimiter detected (tab, semicolon or comma), number formats and dates read
+ * as for a file. The first row names the columns; a column of period labels labels the rows, puts
+ * them in time order and gives the period and the future periods' labels.
  * @example pastedData("month\tsales\n2024-01\t5\n2024-02\t6").names // ["sales"]
  */
-export function pastedData(text: string): PaneData {
+export function pastedData(text: string, decimal?: DecimalMark): PaneData {
   const trimmed = text.replace(/\s+$/, "");
   if (trimmed === "") throw new EngineError("input", "Paste a table first: a header row naming the columns, then one row per period.");
-  const firstLine = trimmed.split(/\r?\n/)[0];
-  const tab = firstLine.includes("\t");
-  // Tab-separated: turn it into CSV by quoting each field (fields may contain commas, e.g. "12,500").
-  const csv = tab
-    ? trimmed.split(/\r?\n/).map((l) => l.split("\t").map((f) => `"${f.replace(/"/g, '""')}"`).join(",")).join("\n")
-    : trimmed;
-  const table = parseCsv(csv);
-  const s = csvSeries(table);
+  const s = readCsvText(trimmed, { decimal, decimalOption: "the decimal mark choice", delimiterFix: (d) => `a first line sep=${d === "tab" ? "\\t" : d}, or copy the cells straight from the sheet (tabs)` });
+  const columns = s.names.map((_, j) => s.column(j));
   return {
-    source: `Pasted table (${s.names.length} series × ${table.rows} rows)`,
+    source: `Pasted table (${s.names.length} series × ${s.rows} rows)`,
     names: s.names,
-    columns: s.names.map((_, j) => s.column(j)),
+    columns,
     rowLabels: s.labelColumn ? s.labelColumn.values : undefined,
     headerRows: 1,
+    period: s.calendar ? s.period : undefined,
+    nextLabel: s.next ?? undefined,
+    notes: s.reading.notes,
   };
 }

@@ -1,6 +1,7 @@
 // fanwise audit: did published intervals cover the actuals as often as their level says?
 import { EngineError, auditCoverage } from "../../engine";
 import { readCsvFile } from "../csv-file";
+import { readTable } from "../../io";
 import { Command, COMMON } from "../command";
 import { writeOutput } from "../output";
 import { fileArgument } from "../series-input";
@@ -21,12 +22,13 @@ export const auditCommand: Command = {
   examples: ["fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80"],
   run(p, io) {
     const level = p.num("level") as number;
-    const t = readCsvFile(fileArgument(p, "fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80"));
+    // A forecast log repeats periods (one row per forecast), so no calendar is read from it.
+    const t = readTable(readCsvFile(fileArgument(p, "fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80")), { calendar: false });
     const col = (flag: string) => {
       const name = p.text(flag) as string;
-      const j = t.header.indexOf(name);
-      if (j < 0) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
-      return t.cells(j);
+      const cells = t.columnNamed(name);
+      if (cells === null) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
+      return cells;
     };
     const a = auditCoverage(col("actual"), col("lower"), col("upper"), level, 2);
     writeOutput(io, p.has("json"), {
