@@ -1,7 +1,8 @@
 // Reading the series of a file for a command, and fitting every series with the shared options
 // (--method, --lambda, --period), each series keeping its own message when it cannot be used.
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
-import { readTable, SeriesTable as CsvSeries } from "../io";
+import { DecimalMark, parseDelimiterOption, readTable, SeriesTable as CsvSeries } from "../io";
+import { Io, oneLine } from "./output";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs } from "./options";
 
@@ -19,7 +20,36 @@ export function fileArgument(p: ParsedArgs, example: string): string {
  * @example readSeriesFile(parsed).names // ["Harbour Street", …]
  */
 export function readSeriesFile(p: ParsedArgs): CsvSeries {
-  return readTable(readCsvFile(fileArgument(p, "fanwise screen sales.csv")));
+  const d = p.text("delimiter");
+  const file = readCsvFile(fileArgument(p, "fanwise screen sales.csv"), d === undefined ? undefined : parseDelimiterOption(d));
+  return readTable(file, { decimal: p.choice("decimal") as DecimalMark | undefined });
+}
+
+/** The period a command uses for a file, and where it comes from. */
+export interface PeriodChoice {
+  period: number;
+  /** option: --period; dates: the period column's frequency; default: 1 (no dates). */
+  periodFrom: "option" | "dates" | "default";
+}
+
+/**
+ * The period: --period when given, else the one the file's dates imply (monthly 12, quarterly 4,
+ * yearly 1, weekly 52, daily 7), else 1.
+ * @example periodOf(parsed, data) // { period: 12, periodFrom: "dates" }
+ */
+export function periodOf(p: ParsedArgs, data: CsvSeries): PeriodChoice {
+  const given = p.int("period");
+  return given !== undefined ? { period: given, periodFrom: "option" } : { period: data.period, periodFrom: data.periodFrom };
+}
+
+/**
+ * Says how the file was read when it matters (rows left out, order changed, skipped periods): in
+ * CSV mode one "fanwise: note: …" line each on stderr (with --json the `reading` object says it).
+ * @example reportReading(io, false, data) // stderr: "fanwise: note: Line 146 ("Total") is not a period; left out."
+ */
+export function reportReading(io: Io, json: boolean, data: CsvSeries): void {
+  if (json) return;
+  for (const n of data.reading.notes) io.err(`fanwise: note: ${oneLine(n)}\n`);
 }
 
 /**
@@ -91,7 +121,7 @@ export interface SeriesFit {
  * @example fitAll(parsed, data)[0].f?.method // "holt-winters"
  */
 export function fitAll(p: ParsedArgs, data: CsvSeries): SeriesFit[] {
-  const period = p.int("period") ?? 1;
+  const { period } = periodOf(p, data);
   const method = p.text("method");
   const lambdaFlag = p.text("lambda");
   const zeros = zerosOf(p);

@@ -3,7 +3,7 @@
 import { backtest, isEngineError } from "../../engine";
 import { Command, COMMON } from "../command";
 import { seriesError, writeOutput } from "../output";
-import { errorMessage, readSeriesFile, zerosOf } from "../series-input";
+import { errorMessage, periodOf, readSeriesFile, reportReading, zerosOf } from "../series-input";
 
 export const backtestCommand: Command = {
   name: "backtest",
@@ -15,6 +15,8 @@ export const backtestCommand: Command = {
     lambda: COMMON.lambda,
     level: COMMON.level,
     period: COMMON.period,
+    delimiter: COMMON.delimiter,
+    decimal: COMMON.decimal,
     first: { type: { kind: "int", min: 2 }, value: "N", help: "length of the first fitting window", example: "24" },
     zeros: COMMON.zeros,
     json: COMMON.json,
@@ -23,9 +25,9 @@ export const backtestCommand: Command = {
   run(p, io) {
     const H = p.int("horizon") as number;
     const level = p.num("level") ?? 95;
-    const period = p.int("period") ?? 1;
     const first = p.int("first");
     const data = readSeriesFile(p);
+    const { period, periodFrom } = periodOf(p, data);
     const results = data.names.map((_, j) => {
       try {
         return { name: data.names[j], b: backtest(data.column(j), H, { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", level, period, first, label: data.names[j], zeros: zerosOf(p) }) };
@@ -37,8 +39,8 @@ export const backtestCommand: Command = {
     writeOutput(io, p.has("json"), {
       json: () => {
         const series: Record<string, unknown> = {};
-        for (const r of results) series[r.name] = r.b ? { horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, steps: r.b.rows } : { error: r.error };
-        return { series };
+        for (const r of results) series[r.name] = r.b ? { horizon: r.b.horizon, period, periodFrom, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, steps: r.b.rows } : { error: r.error };
+        return { reading: data.reading, series };
       },
       header: ["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "note"],
       rows: () => {
@@ -51,6 +53,7 @@ export const backtestCommand: Command = {
       },
     });
     for (const r of results) if (!r.b) seriesError(io, r.name, r.error);
+    reportReading(io, p.has("json"), data);
     return 0;
   },
 };

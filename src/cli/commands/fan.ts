@@ -2,7 +2,7 @@
 import { FanTable, Maybe, fanTable, isEngineError } from "../../engine";
 import { Command, COMMON } from "../command";
 import { seriesError, writeOutput } from "../output";
-import { atLines, errorMessage, fitAll, readSeriesFile } from "../series-input";
+import { atLines, errorMessage, fitAll, periodOf, readSeriesFile, reportReading } from "../series-input";
 
 /** fan's own options, shared with the commands that draw or write a fan. */
 export const FAN_OPTIONS = {
@@ -13,6 +13,8 @@ export const FAN_OPTIONS = {
   period: COMMON.period,
   mean: COMMON.mean,
   zeros: COMMON.zeros,
+  delimiter: COMMON.delimiter,
+  decimal: COMMON.decimal,
 };
 
 /**
@@ -43,6 +45,8 @@ export const fanCommand: Command = {
     const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
     const levels = p.text("levels");
     const data = readSeriesFile(p);
+    const { period, periodFrom } = periodOf(p, data);
+    const label = (h: number): string => (data.next ? data.next(h) : "");
     const tables: { name: string; table?: FanTable; missing?: number; error?: string }[] = fitAll(p, data).map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
@@ -66,8 +70,11 @@ export const fanCommand: Command = {
             sigma: tb.sigma,
             missing: t.missing,
             meanMethod: tb.meanMethod,
+            period,
+            periodFrom,
             steps: tb.rows.map((r) => ({
               h: r.h,
+              ...(data.next ? { period: label(r.h) } : {}),
               mean: val(r.mean),
               median: val(r.median),
               intervals: Object.fromEntries(Object.entries(r.intervals).map(([k, v]) => [k, [val(v[0]), val(v[1])]])),
@@ -76,16 +83,16 @@ export const fanCommand: Command = {
             notes: tb.notes,
           };
         }
-        return { series };
+        return { reading: data.reading, series };
       },
-      header: ["series", "h", "method", "lambda", "mean", "median", ...lv.flatMap((l) => [`low${l}`, `high${l}`]), "note"],
+      header: ["series", "h", "period", "method", "lambda", "mean", "median", ...lv.flatMap((l) => [`low${l}`, `high${l}`]), "note"],
       rows: () => {
         const rows: unknown[][] = [];
         for (const t of tables) {
-          if (!t.table) { rows.push([t.name, "", "", "", "", "", ...lv.flatMap(() => ["", ""]), t.error]); continue; }
+          if (!t.table) { rows.push([t.name, "", "", "", "", "", "", ...lv.flatMap(() => ["", ""]), t.error]); continue; }
           const tb = t.table;
           tb.rows.forEach((r, i) => rows.push([
-            t.name, r.h, tb.method, tb.lambda === null ? "none" : tb.lambda, val(r.mean), val(r.median),
+            t.name, r.h, label(r.h), tb.method, tb.lambda === null ? "none" : tb.lambda, val(r.mean), val(r.median),
             ...lv.flatMap((l) => [val(r.intervals[String(l)][0]), val(r.intervals[String(l)][1])]),
             [i === 0 ? tb.notes.join(" ") : "", ...cellNotes(r)].filter(Boolean).join(" "),
           ]));
@@ -94,6 +101,7 @@ export const fanCommand: Command = {
       },
     });
     for (const t of tables) if (!t.table) seriesError(io, t.name, t.error);
+    reportReading(io, p.has("json"), data);
     return 0;
   },
 };

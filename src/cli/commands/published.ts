@@ -2,6 +2,7 @@
 // central intervals — each row's μ, σ, mean and implied λ, then the total with its assumption.
 import { EngineError, publishedTotal, RawCell } from "../../engine";
 import { readCsvFile } from "../csv-file";
+import { readTable } from "../../io";
 import { Command, COMMON } from "../command";
 import { writeOutput } from "../output";
 import { fileArgument } from "../series-input";
@@ -32,12 +33,13 @@ export const publishedCommand: Command = {
   examples: [EXAMPLE, "fanwise published forecast.csv --median median --lower lower80 --upper upper80 --level 80 --lambda implied --dependence comonotone --json"],
   run(p, io) {
     const level = p.num("level") as number;
-    const t = readCsvFile(fileArgument(p, EXAMPLE));
+    // Rows are read in file order (no calendar), with the shared reader's number formats.
+    const t = readTable(readCsvFile(fileArgument(p, EXAMPLE)), { calendar: false });
     const col = (flag: string): RawCell[] => {
       const name = p.text(flag) as string;
-      const j = t.header.indexOf(name);
-      if (j < 0) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
-      return t.cells(j);
+      const cells = t.columnNamed(name);
+      if (cells === null) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
+      return cells;
     };
     const cols = [col("median"), col("lower"), col("upper")];
     const flags = ["median", "lower", "upper"];
@@ -54,7 +56,7 @@ export const publishedCommand: Command = {
       m.push(row[0] as number);
       l.push(row[1] as number);
       u.push(row[2] as number);
-      lines.push(t.line(i));
+      lines.push(t.line(i) ?? i + 2);
     }
     if (m.length === 0) throw new EngineError("input", "The three columns hold no months; check the column names.");
     const lambdaText = p.text("lambda");

@@ -2,17 +2,17 @@
 import { screenSeries } from "../../engine";
 import { Command, COMMON } from "../command";
 import { writeOutput } from "../output";
-import { lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
+import { lineOf, periodOf, readSeriesFile, reportReading, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const screenCommand: Command = {
   name: "screen",
   summary: "check each series: blanks, text cells, values ≤ 0, a suggested λ",
   args: "FILE",
-  options: { period: COMMON.period, zeros: COMMON.zeros, json: COMMON.json },
+  options: { period: COMMON.period, zeros: COMMON.zeros, delimiter: COMMON.delimiter, decimal: COMMON.decimal, json: COMMON.json },
   examples: ["fanwise screen sales.csv --period 12"],
   run(p, io) {
-    const period = p.int("period") ?? 1;
     const data = readSeriesFile(p);
+    const { period, periodFrom } = periodOf(p, data);
     const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI }));
     writeOutput(io, p.has("json"), {
       json: () => {
@@ -22,14 +22,15 @@ export const screenCommand: Command = {
             n: r.n, blanks: r.blanks, leadingBlanks: r.leadingBlanks, trailingBlanks: r.trailingBlanks, interiorGaps: r.interiorGaps, missing: r.missing, zerosIsolated: r.zerosIsolated,
             textCells: r.textCells, min: r.min, max: r.max, zeros: r.zeros, negatives: r.negatives, nonPositive: r.nonPositive,
             boxCoxUsable: r.boxCoxUsable, suggestedLambda: r.suggestedLambda, lambdaEstimate: r.lambda ? r.lambda.lambda : null,
-            lambdaMethod: r.lambda ? r.lambda.method : null, fix: r.fix, shift: r.shift, message: r.message,
+            lambdaMethod: r.lambda ? r.lambda.method : null, fix: r.fix, shift: r.shift, message: r.message, period, periodFrom,
           };
         });
-        return { series };
+        return { reading: data.reading, series };
       },
       header: ["series", "n", "blanks", "text_cells", "min", "nonpositive", "boxcox_usable", "suggested_lambda", "fix", "message"],
       rows: () => results.map((r, j) => [data.names[j], r.n, r.blanks, r.textCells, r.min, r.nonPositive, r.boxCoxUsable ? "yes" : "no", r.suggestedLambda === null ? "" : round(r.suggestedLambda), r.fix, r.message]),
     });
+    reportReading(io, p.has("json"), data);
     return 0;
   },
 };

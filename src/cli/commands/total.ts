@@ -4,8 +4,8 @@
 import { alignSeries, checkWindowStart, EngineError, fitForecast, Forecaster, isEngineError, totalAcross, totalForecast, AcrossTotal } from "../../engine";
 import { Command, COMMON } from "../command";
 import { seriesError, writeOutput } from "../output";
-import { atLines, errorMessage, fitAll, readSeriesFile, SeriesFit } from "../series-input";
-import type { CsvSeries } from "../csv";
+import { atLines, errorMessage, fitAll, periodOf, readSeriesFile, reportReading, SeriesFit } from "../series-input";
+import type { SeriesTable as CsvSeries } from "../../io";
 import type { ParsedArgs } from "../options";
 
 interface AcrossRow { name: string; t?: AcrossTotal; error?: string; notes: string[] }
@@ -18,8 +18,8 @@ function acrossRow(p: ParsedArgs, data: CsvSeries, fits: SeriesFit[], H: number,
   const notes = left.length ? [`Left out (cannot be fitted): ${left.join(", ")}.`] : [];
   try {
     const aligned = alignSeries(ok.map(({ j }) => data.column(j)), ok.map(({ x }) => x.name), 1);
-    if (aligned.note) notes.push(aligned.note.replace(/row (\d+)/, (_m, r) => `line ${data.line(Number(r) - 1)}`));
-    const period = p.int("period") ?? 1;
+    if (aligned.note) notes.push(aligned.note.replace(/row (\d+)/, (_m, r) => data.where(Number(r) - 1)));
+    const { period } = periodOf(p, data);
     const fs: Forecaster[] = ok.map(({ x }, k) => (aligned.cut.includes(x.name)
       ? fitForecast(aligned.columns[k], { method: p.text("method") ?? "auto", lambda: p.text("lambda") ?? "auto", period, label: x.name })
       : (x.f as Forecaster)));
@@ -43,6 +43,8 @@ export const totalCommand: Command = {
     lambda: COMMON.lambda,
     level: COMMON.level,
     period: COMMON.period,
+    delimiter: COMMON.delimiter,
+    decimal: COMMON.decimal,
     seed: { type: { kind: "int", min: 0 }, value: "S", help: "seed of the simulated paths (same seed, same result)", example: "7", default: "1" },
     paths: { type: { kind: "int", min: 100 }, value: "P", help: "number of simulated paths", example: "20000", default: "10000" },
     mean: COMMON.mean,
@@ -65,6 +67,7 @@ export const totalCommand: Command = {
     const paths = p.int("paths") ?? 10000;
     const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
     const data = readSeriesFile(p);
+    const { period, periodFrom } = periodOf(p, data);
     const fits = fitAll(p, data);
     const results = fits.map((x) => {
       if (!x.f) return { name: x.name, error: x.error as string };
@@ -84,15 +87,17 @@ export const totalCommand: Command = {
         for (const r of results) {
           if (!("t" in r) || !r.t) { series[r.name] = { error: r.error }; continue; }
           series[r.name] = {
-            method: r.method, lambda: r.lambda, missing: r.missing, from: r.t.from, horizon: r.t.horizon,
+            method: r.method, lambda: r.lambda, missing: r.missing, from: r.t.from, horizon: r.t.horizon, period, periodFrom,
+            ...(data.next ? { firstPeriod: data.next(r.t.from), lastPeriod: data.next(r.t.horizon) } : {}),
             mean: r.t.mean.value, median: r.t.median, interval: r.t.interval, level: r.t.level,
             paths: r.t.paths, seed: r.t.seed, simulatedMean: r.t.simulatedMean, monteCarloError: r.t.monteCarloError,
             notes: [...(r.t.mean.note ? [r.t.mean.note] : []), ...r.t.notes],
           };
         }
-        if (!across) return { series };
+        if (!across) return { reading: data.reading, series };
         const a = across.t;
         return {
+          reading: data.reading,
           series,
           across: a ? {
             name: across.name, from: a.from, horizon: a.horizon, mean: a.mean, median: a.median, interval: a.interval, level: a.level,
@@ -114,6 +119,7 @@ export const totalCommand: Command = {
     });
     for (const r of results) if (!("t" in r) || !r.t) seriesError(io, r.name, r.error);
     if (across && !across.t) seriesError(io, across.name, across.error);
+    reportReading(io, p.has("json"), data);
     return 0;
   },
 };
