@@ -17,3 +17,5 @@ export { parseCsv, readCsvText } from "./parse";
 export type { ParseOptions } from "./parse";
 export { parseDecimalOption } from "./options";
 export { csvCell, toCsv } from "./csv-out";
+export { findDateColumn, isDateFormat } from "./cells";
+export type { CellDates } from "./cells";

@@ -54,7 +54,8 @@ export interface ReadOptions {
   /** Force the decimal mark of every series column. */
   decimal?: DecimalMark;
   /** How the face names its options in messages ("--decimal", "the decimal mark box"). */
-  decimalOption?: string;
+  /** How the face says to force decimal mark m (default: "--decimal ,"). */
+  decimalFix?: (mark: DecimalMark) => string;
   /** How the face says to use delimiter d (default: "--delimiter ;"). */
   delimiterFix?: (d: string) => string;
 }
@@ -183,7 +184,7 @@ function isSeriesColumn(c: Column, rows: number): boolean {
 export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTable {
   const rows = cols.rows;
   const delimiter: Delimiter = cols.delimiter;
-  const decimalOption = options.decimalOption ?? "--decimal";
+  const fix = options.decimalFix ?? ((m: DecimalMark) => `--decimal ${m}`);
   const notes: string[] = [];
   const fileLine = (i: number): string => `line ${cols.line(i)}`;
   // 1. The period column.
@@ -251,7 +252,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     if (options.decimal) { mark = options.decimal; from = "option"; }
     else if (x.dot || x.comma) {
       if (x.dot === x.comma) {
-        problem = `Column "${c.name}" mixes decimal points and decimal commas (${fileLine(x.firstDot)}: "${c.text(x.firstDot)}", ${fileLine(x.firstComma)}: "${c.text(x.firstComma)}"). Write its numbers one way, or force the mark with ${decimalOption} , or ${decimalOption} .`;
+        problem = `Column "${c.name}" mixes decimal points and decimal commas (${fileLine(x.firstDot)}: "${c.text(x.firstDot)}", ${fileLine(x.firstComma)}: "${c.text(x.firstComma)}"). Write its numbers one way, or force the mark with ${fix(",")} or ${fix(".")}.`;
       }
       mark = x.dot >= x.comma ? "." : ",";
       from = "values";
@@ -262,7 +263,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
       mark = ".";
       from = "values";
       const t = c.text(x.firstAmbiguous);
-      problem = `Column "${c.name}" has numbers like "${t}" (${fileLine(x.firstAmbiguous)}) that read differently with a decimal point or a decimal comma, and nothing in the file decides it. Say which with ${decimalOption} . or ${decimalOption} , .`;
+      problem = `Column "${c.name}" has numbers like "${t}" (${fileLine(x.firstAmbiguous)}) that read differently with a decimal point or a decimal comma, and nothing in the file decides it. Say which with ${fix(".")} or ${fix(",")}.`;
     }
     marks.push(mark);
     problems.push(problem);
@@ -318,7 +319,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     if (bad.length) {
       const shown = bad.slice(0, 3).map((i) => `${fileLine(i)}: "${c.text(i)}"`).join(", ");
       const other: DecimalMark = mark === "." ? "," : ".";
-      throw new EngineError("input", `Column "${c.name}" has ${bad.length === 1 ? "a value" : `${bad.length} values`} that cannot be read as ${bad.length === 1 ? "a number" : "numbers"} with the decimal mark "${mark}" (${shown}${bad.length > 3 ? ", …" : ""}). Correct ${bad.length === 1 ? "it" : "them"}${rep.decimalFrom === "option" ? "" : `, or force the mark with ${decimalOption} ${other}`}.`);
+      throw new EngineError("input", `Column "${c.name}" has ${bad.length === 1 ? "a value" : `${bad.length} values`} that cannot be read as ${bad.length === 1 ? "a number" : "numbers"} with the decimal mark "${mark}" (${shown}${bad.length > 3 ? ", …" : ""}). Correct ${bad.length === 1 ? "it" : "them"}${rep.decimalFrom === "option" ? "" : `, or force the mark with ${fix(other)}`}.`);
     }
     rep.thousands = Array.from(thousands);
     rep.currency = Array.from(currency);

@@ -13,7 +13,7 @@ import type { PaneData } from "./view-model";
 export function pastedData(text: string, decimal?: DecimalMark): PaneData {
   const trimmed = text.replace(/\s+$/, "");
   if (trimmed === "") throw new EngineError("input", "Paste a table first: a header row naming the columns, then one row per period.");
-  const s = readCsvText(trimmed, { decimal, decimalOption: "the decimal mark choice", delimiterFix: (d) => `a first line sep=${d === "tab" ? "\\t" : d}, or copy the cells straight from the sheet (tabs)` });
+  const s = readCsvText(trimmed, { decimal, decimalFix: (m) => `Decimal mark: ${m === "," ? "comma" : "point"}`, delimiterFix: (d) => `a first line sep=${d === "tab" ? "\\t" : d}, or copy the cells straight from the sheet (tabs)` });
   const columns = s.names.map((_, j) => s.column(j));
   return {
     source: `Pasted table (${s.names.length} series × ${s.rows} rows)`,
