@@ -188,7 +188,7 @@ function renderFan(): void {
     renderTable(view);
     updateSlider(view.lambdaRange);
     if (state.inExcel && state.data.address) {
-      $("fw-formula").textContent = fanFormula(columnAddress(state.data.address, c.series), { ...c, levels: c.levels });
+      $("fw-formula").textContent = fanFormula(columnAddress(state.data.address, state.data.rangeColumns?.[c.series] ?? c.series), { ...c, levels: c.levels });
     }
   }
   state.lastRenderMs = performance.now() - t0;
