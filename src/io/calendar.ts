@@ -44,6 +44,18 @@ export interface LabelledRow {
 /** What a calendar may skip before the dates count as irregular: 20% of the rows, at least 2. */
 const MAX_SKIPPED_SHARE = 0.2;
 
+// Loops, not Math.min(...x): a spread of a million dates overflows the call stack.
+function minOf(x: number[]): number {
+  let m = Infinity;
+  for (const v of x) if (v < m) m = v;
+  return m;
+}
+function maxOf(x: number[]): number {
+  let m = -Infinity;
+  for (const v of x) if (v > m) m = v;
+  return m;
+}
+
 const MONTH_LEVEL: LabelFamily[] = ["ym", "my", "mon"];
 
 function monthLabel(k: number): string {
@@ -71,7 +83,7 @@ function monthsFromDays(days: number[]): { step: number; base: number; keys: num
   // 3 days (first or last business day).
   const dom = dates.map((d) => d.getUTCDate());
   const fromEnd = dates.map((d) => new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth() + 1, 0)).getUTCDate() - d.getUTCDate());
-  const spread = (x: number[]): number => Math.max(...x) - Math.min(...x);
+  const spread = (x: number[]): number => maxOf(x) - minOf(x);
   if (spread(dom) > 3 && spread(fromEnd) > 3) return null;
   return { step, base: sorted[0], keys: months.map((m) => (m - sorted[0]) / step) };
 }
@@ -164,8 +176,8 @@ export function buildCalendar(rows: LabelledRow[], column: string, lineOf: (row:
     if (k.keys[i] < k.keys[i - 1]) ascending = false;
     if (k.keys[i] > k.keys[i - 1]) descending = false;
   }
-  const first = Math.min(...k.keys);
-  const last = Math.max(...k.keys);
+  const first = minOf(k.keys);
+  const last = maxOf(k.keys);
   const length = last - first + 1;
   const skippedCount = length - rows.length;
   if (skippedCount > Math.max(2, MAX_SKIPPED_SHARE * rows.length)) {

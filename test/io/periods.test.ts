@@ -89,3 +89,10 @@ describe("the calendar (common practice)", () => {
     expect(() => calendarFor(rowsOf(["01/02/2024", "01/03/2024", "01/04/2024"]), "date", lineOf)).toThrow(/Cannot tell whether the dates in "date" are day-first or month-first.*yyyy-mm-dd/);
   });
 });
+
+test("a long daily calendar (300,000 days) is read without overflowing the call stack (common practice)", () => {
+  const start = Date.UTC(1200, 0, 1) / 86400000;
+  const labels = Array.from({ length: 300000 }, (_, i) => isoDate(start + i));
+  const c = buildCalendar(rowsOf(labels), "day", lineOf);
+  expect([c.frequency, c.labels.length, c.next(1)]).toEqual(["daily", 300000, isoDate(start + 300000)]);
+});
