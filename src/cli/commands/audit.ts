@@ -1,7 +1,7 @@
 // fanwise audit: did published intervals cover the actuals as often as their level says?
 import { EngineError, auditCoverage } from "../../engine";
 import { readCsvFile } from "../csv-file";
-import { readTable } from "../../io";
+import { DecimalMark, parseDelimiterOption, readTable } from "../../io";
 import { Command, COMMON } from "../command";
 import { writeOutput } from "../output";
 import { fileArgument } from "../series-input";
@@ -17,13 +17,17 @@ export const auditCommand: Command = {
     lower: { type: { kind: "text" }, value: "COL", help: "column of interval low ends", example: "lower80", required: SYNOPSIS },
     upper: { type: { kind: "text" }, value: "COL", help: "column of interval high ends", example: "upper80", required: SYNOPSIS },
     level: { ...COMMON.level, help: "the intervals' level in percent", example: "80", default: undefined, required: SYNOPSIS },
+    delimiter: COMMON.delimiter,
+    decimal: COMMON.decimal,
     json: COMMON.json,
   },
   examples: ["fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80"],
   run(p, io) {
     const level = p.num("level") as number;
     // A forecast log repeats periods (one row per forecast), so no calendar is read from it.
-    const t = readTable(readCsvFile(fileArgument(p, "fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80")), { calendar: false });
+    const d = p.text("delimiter");
+    const file = readCsvFile(fileArgument(p, "fanwise audit forecast-log.csv --actual actual --lower lower80 --upper upper80 --level 80"), d === undefined ? undefined : parseDelimiterOption(d));
+    const t = readTable(file, { calendar: false, decimal: p.choice("decimal") as DecimalMark | undefined });
     const col = (flag: string) => {
       const name = p.text(flag) as string;
       const cells = t.columnNamed(name);
