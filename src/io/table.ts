@@ -319,7 +319,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     if (bad.length) {
       const shown = bad.slice(0, 3).map((i) => `${fileLine(i)}: "${c.text(i)}"`).join(", ");
       const other: DecimalMark = mark === "." ? "," : ".";
-      throw new EngineError("input", `Column "${c.name}" has ${bad.length === 1 ? "a value" : `${bad.length} values`} that cannot be read as ${bad.length === 1 ? "a number" : "numbers"} with the decimal mark "${mark}" (${shown}${bad.length > 3 ? ", …" : ""}). Correct ${bad.length === 1 ? "it" : "them"}${rep.decimalFrom === "option" ? "" : `, or force the mark with ${fix(other)}`}.`);
+      throw new EngineError("input", `Column "${c.name}" has ${bad.length === 1 ? "a value" : `${bad.length} values`} that cannot be read as ${bad.length === 1 ? "a number" : "numbers"} with the decimal mark "${mark}" (${shown}${bad.length > 3 ? ", …" : ""}). Correct ${bad.length === 1 ? "it" : "them"}, or ${rep.decimalFrom === "option" ? "give the other mark" : "force the mark"} with ${fix(other)}.`);
     }
     rep.thousands = Array.from(thousands);
     rep.currency = Array.from(currency);
