@@ -1,17 +1,20 @@
 #!/usr/bin/env node
-// Offline check of manifest.xml: the online validator cannot run here, and no package ships the
+// Offline check of a manifest: the online validator cannot run here, and no package ships the
 // schemas, so this checks the structure the add-in depends on (shared runtime, custom functions,
 // the pane button, resource ids, URLs, icons) and then runs `xmllint --noout` for well-formedness.
+// It checks the development manifest.xml (https://localhost:3000, namespace FWDEV) and a built
+// dist/manifest.xml for any HTTPS origin (namespace FW): every URL on one HTTPS origin, never http://.
 // Usage: node scripts/check-manifest.js manifest.xml     (exit 1 with one line per problem)
 "use strict";
 const fs = require("fs");
 const path = require("path");
 const { spawnSync } = require("child_process");
 const xml2js = require("xml2js");
+const { URL } = require("url");
+const { DEV, PROD, DEV_ORIGIN } = require("./origin");
 
 /** The least permission the features need: reading the selection, writing a formula and a chart. */
 const LEAST_PERMISSION = "ReadWriteDocument";
-const ORIGIN = "https://localhost:3000";
 
 function arr(x) {
   return x === undefined ? [] : Array.isArray(x) ? x : [x];
@@ -45,9 +48,14 @@ async function checkManifest(xml, rootDir) {
   if (attr(app, "xsi:type") !== "TaskPaneApp") problems.push("OfficeApp xsi:type must be TaskPaneApp");
   const id = text(first(app, "Id"));
   if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id || "")) problems.push("Id must be a GUID");
+  // Development and deployed copies must not clash (two add-ins claiming one namespace show #REF!:
+  // "Custom functions naming and localization", https://learn.microsoft.com/office/dev/add-ins/excel/custom-functions-naming).
+  const identity = id === DEV.id ? DEV : id === PROD.id ? PROD : null;
+  if (!identity) problems.push(`Id must be the development Id ${DEV.id} (manifest.xml) or the deployed Id ${PROD.id} (dist/manifest.xml)`);
   if (!/^\d+(\.\d+){0,3}$/.test(text(first(app, "Version")) || "")) problems.push("Version must look like 1.0.0.0");
   const display = attr(first(app, "DisplayName"), "DefaultValue") || "";
   if (!display || display.length > 125) problems.push("DisplayName must be 1–125 characters");
+  else if (identity && display !== identity.displayName) problems.push(`DisplayName must be "${identity.displayName}" for ${identity === DEV ? "the development" : "the deployed"} Id; got "${display}"`);
   const desc = attr(first(app, "Description"), "DefaultValue") || "";
   if (!desc || desc.length > 250) problems.push("Description must be 1–250 characters");
   const hosts = arr(first(app, "Hosts") && first(app, "Hosts").Host).map((h) => attr(h, "Name"));
@@ -112,6 +120,7 @@ async function checkManifest(xml, rootDir) {
         const action = first(c, "Action");
         if (attr(action, "xsi:type") === "ShowTaskpane") {
           panes++;
+          if (first(action, "TaskpaneId") !== undefined) problems.push("the ShowTaskpane action must have no TaskpaneId: the shared runtime's pane is the runtime page itself (one task pane per shared runtime)");
           const src = attr(first(action, "SourceLocation"), "resid");
           if (src !== runtimeId) problems.push("the ShowTaskpane action must use the Runtime's resid (shared runtime)");
           use(src, "Url", "ShowTaskpane SourceLocation");
@@ -147,22 +156,37 @@ async function checkManifest(xml, rootDir) {
     if (!urlOf(attr(first(cf, "Script", "SourceLocation"), "resid")).endsWith("/functions.js")) problems.push("CustomFunctions Script must point at functions.js");
     if (!urlOf(attr(first(cf, "Metadata", "SourceLocation"), "resid")).endsWith("/functions.json")) problems.push("CustomFunctions Metadata must point at functions.json");
     const ns = urlOf(attr(first(cf, "Namespace"), "resid"));
-    if (ns !== "FW") problems.push(`the custom functions namespace must be FW; got "${ns}"`);
+    const wantNs = identity ? identity.namespace : PROD.namespace;
+    if (ns !== wantNs) problems.push(`the custom functions namespace must be ${wantNs} for ${identity === DEV ? "the development" : "the deployed"} Id; got "${ns}"`);
     if (ns.length > 32) problems.push("the namespace must be at most 32 characters");
   }
 
-  // Every URL (resources and top-level) is on the development origin; icons exist in assets/.
+  // Every URL (resources and top-level) is HTTPS ("SourceLocation element": the source location must
+  // be an HTTPS address, https://learn.microsoft.com/javascript/api/manifest/sourcelocation) and on
+  // ONE base: the pane's own (SourceLocation without /taskpane.html). The development manifest's base
+  // is https://localhost:3000; a deployed one's is the origin it was built for. Icons exist in assets/.
   const urls = [];
   for (const [, d] of defined) if (d.kind === "Url" || d.kind === "Image") urls.push(d.val);
   for (const tag of ["IconUrl", "HighResolutionIconUrl", "SupportUrl"]) urls.push(attr(first(app, tag), "DefaultValue") || "");
-  urls.push(attr(first(app, "DefaultSettings", "SourceLocation"), "DefaultValue") || "");
+  const source = attr(first(app, "DefaultSettings", "SourceLocation"), "DefaultValue") || "";
+  urls.push(source);
+  const sm = /^(https:\/\/[^/?#]+(?:\/[^?#]*)?)\/taskpane\.html$/.exec(source);
+  if (!sm) problems.push(`DefaultSettings SourceLocation ${source || "(empty)"} must be an https:// address ending in /taskpane.html`);
+  const base = sm ? sm[1] : null;
+  if (base && identity === DEV && base !== DEV_ORIGIN) problems.push(`the development manifest must be served from ${DEV_ORIGIN}; got ${base}`);
+  if (base && identity === PROD && /^https:\/\/(localhost|127\.0\.0\.1|\[::1\])(:|\/|$)/i.test(base)) problems.push(`the deployed manifest must not point at this machine (${base}); build it for the organisation's HTTPS origin`);
+  const mixed = new Set();
   for (const u of urls) {
-    if (!u.startsWith(ORIGIN + "/")) problems.push(`URL ${u || "(empty)"} must be on ${ORIGIN}`);
+    if (/^http:\/\//i.test(u)) problems.push(`URL ${u} uses http://; Office add-ins load only over HTTPS`);
+    else if (!/^https:\/\//.test(u)) problems.push(`URL ${u || "(empty)"} must be an https:// address`);
+    else if (base && !u.startsWith(base + "/")) mixed.add(u);
     const m = /\/assets\/([^/?#]+\.png)$/.exec(u);
     if (m && !fs.existsSync(path.join(rootDir, "assets", m[1]))) problems.push(`icon ${m[1]} is referenced but assets/${m[1]} does not exist`);
   }
+  for (const u of mixed) problems.push(`URL ${u} is not on ${base}/, the pane's own base: a manifest must not mix origins (rebuild with one --env origin=...)`);
+  const origin = base ? new URL(base).origin : null;
   for (const d of arr(first(app, "AppDomains") && first(app, "AppDomains").AppDomain)) {
-    if (text(d) !== ORIGIN) problems.push(`AppDomain ${text(d)} must be ${ORIGIN}`);
+    if (origin && text(d) !== origin) problems.push(`AppDomain ${text(d)} must be ${origin}, the pane's origin`);
   }
   return problems;
 }

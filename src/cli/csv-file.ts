@@ -8,10 +8,12 @@ import { CsvColumns, CsvRecordReader, Delimiter, detectDelimiter, notText } from
  * Reads a CSV file in 256 KiB pieces straight into columns; the text is never held whole. UTF-8 (with
  * or without a BOM) is expected; a file that is not valid UTF-8 is read again as Windows-1252 (what
  * older spreadsheet programs export). The delimiter is `delimiter` when given, else detected from the
- * first piece (a `sep=` first line, or the first lines). Throws `input` EngineErrors that say what to fix.
+ * first piece (a `sep=` first line, or the first lines). `keepLabels` keeps the text of a first
+ * column named like a period even past the reader's cap (labels for a chart's axis or an audit's
+ * hit strip). Throws `input` EngineErrors that say what to fix.
  * @example readCsvFile("sales.csv").header // ["month", "Harbour Street", …]
  */
-export function readCsvFile(file: string, delimiter?: Delimiter): CsvColumns {
+export function readCsvFile(file: string, options: { delimiter?: Delimiter; keepLabels?: boolean } = {}): CsvColumns {
   let fd: number;
   try {
     fd = fs.openSync(file, "r");
@@ -24,22 +26,22 @@ export function readCsvFile(file: string, delimiter?: Delimiter): CsvColumns {
     throw new EngineError("input", code === "ENOENT" ? `File not found: ${file}` : code === "EISDIR" ? `${file} is a folder, not a CSV file.` : code === "EACCES" ? `No permission to read ${file}.` : `Cannot read ${file} (${code ?? "error"}).`);
   }
   try {
-    const first = readWith(fd, "utf-8", delimiter);
+    const first = readWith(fd, "utf-8", options.delimiter, options.keepLabels ?? false);
     if (first !== "not-utf8") return first;
-    return readWith(fd, "windows-1252", delimiter) as CsvColumns;
+    return readWith(fd, "windows-1252", options.delimiter, options.keepLabels ?? false) as CsvColumns;
   } finally {
     fs.closeSync(fd);
   }
 }
 
-function readWith(fd: number, encoding: "utf-8" | "windows-1252", delimiter: Delimiter | undefined): CsvColumns | "not-utf8" {
+function readWith(fd: number, encoding: "utf-8" | "windows-1252", delimiter: Delimiter | undefined, keepLabels: boolean): CsvColumns | "not-utf8" {
   // The first piece decides the delimiter (the command line names rows by their line, so label text
-  // that is not a period is not kept).
+  // that is not a period is not kept unless asked).
   let state: { cols: CsvColumns; reader: CsvRecordReader } | null = null;
   const feed = (text: string): CsvColumns => {
     if (!state) {
       const choice = detectDelimiter(text, delimiter);
-      const cols = new CsvColumns(false, choice.delimiter, choice.from);
+      const cols = new CsvColumns(keepLabels, choice.delimiter, choice.from);
       state = { cols, reader: new CsvRecordReader((fields, line) => cols.add(fields, line), choice.delimiter, choice.firstLine) };
       text = text.slice(choice.skip);
     }

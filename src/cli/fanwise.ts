@@ -3,7 +3,7 @@
 import { isEngineError } from "../engine";
 import { Command } from "./command";
 import { COMMANDS } from "./commands";
-import { commandHelp, generalHelp } from "./help";
+import { commandHelp, generalHelp, version } from "./help";
 import { HelpRequest, parseOptions } from "./options";
 import { Io, defaultIo, oneLine } from "./output";
 
@@ -18,13 +18,18 @@ function unknownCommand(name: string): string {
 }
 
 /**
- * Runs the command line with the given arguments; resolves to the exit code (0 ok, 1 error).
+ * Runs the command line with the given arguments; resolves to the exit code: 0 every series
+ * computed, 1 nothing computed or a usage/file error, 3 some series failed.
  * Every expected problem becomes a one-line message on stderr, never a stack trace.
  * @example await main(["lambda", "sales.csv", "--json"]) // 0, JSON on stdout
  */
 export async function main(argv: string[], io: Io = defaultIo): Promise<number> {
   const [name, ...rest] = argv;
   try {
+    if (name === "--version" || name === "version") {
+      io.out(`fanwise ${version()}\n`);
+      return 0;
+    }
     if (name === undefined || name === "help" || name === "--help" || name === "-h") {
       const topic = name === "help" ? rest[0] : undefined;
       if (topic !== undefined) {

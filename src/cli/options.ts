@@ -9,7 +9,9 @@ export type OptionType =
   | { kind: "number" }
   | { kind: "choice"; values: readonly string[] }
   | { kind: "pair" }
-  | { kind: "text" };
+  | { kind: "text" }
+  /** Checked by a function that returns the value to use or throws a usage error. */
+  | { kind: "custom"; check: (v: string, name: string) => unknown };
 
 /** One option of a command, as declared in the command's file. */
 export interface OptionSpec {
@@ -68,6 +70,16 @@ export class ParsedArgs {
     return this.values.get(name) as string | undefined;
   }
 
+  /** A custom option's checked value. */
+  value<T>(name: string): T | undefined {
+    return this.values.get(name) as T | undefined;
+  }
+
+  /** The options given, as typed ("--name value" pairs; a switch has the value ""), for a record of the settings. */
+  given(): [string, string][] {
+    return Array.from(this.raw.entries(), ([k, v]) => [`--${k}`, v === true ? "" : v]);
+  }
+
   /** A pair option's two numbers. */
   pair(name: string): [number, number] | undefined {
     return this.values.get(name) as [number, number] | undefined;
@@ -79,7 +91,11 @@ export class HelpRequest {
   constructor(readonly command: string) {}
 }
 
-function usageError(message: string): EngineError {
+/**
+ * A usage error (exit 1): the message says what to type instead.
+ * @example throw usageError("--horizon needs a value.")
+ */
+export function usageError(message: string): EngineError {
   return new EngineError("input", message);
 }
 
@@ -119,6 +135,8 @@ function checkValue(name: string, spec: OptionSpec, v: string): unknown {
       }
       return nums as [number, number];
     }
+    case "custom":
+      return t.check(v, name);
     default:
       return v;
   }
@@ -151,7 +169,7 @@ export function parseOptions(command: string, argv: string[], table: OptionTable
         raw.set(name, v);
       }
     } else if (a.startsWith("-") && a !== "-" && !/^-\d/.test(a)) {
-      throw usageError(`Unknown option ${a}. Options start with two dashes, e.g. --horizon 12.`);
+      throw usageError(`Unknown option ${a}. Options start with two dashes, e.g. ${dashExample(a, argv[i + 1], table)}.`);
     } else positional.push(a);
   }
   const values = new Map<string, unknown>();
@@ -164,6 +182,19 @@ export function parseOptions(command: string, argv: string[], table: OptionTable
     if (v !== true) values.set(name, checkValue(name, spec, v));
   }
   return new ParsedArgs(positional, raw, values);
+}
+
+/** "--horizon 3" for "-h 3": the option the single-dash name starts, with the value the user typed. */
+function dashExample(a: string, next: string | undefined, table: OptionTable): string {
+  const typed = a.replace(/^-+/, "").split("=")[0].toLowerCase();
+  const names = Object.keys(table);
+  const name = names.find((n) => typed !== "" && n.startsWith(typed)) ?? names.find((n) => table[n].type.kind !== "switch") ?? names[0];
+  if (name === undefined) return "--horizon 12";
+  const spec = table[name];
+  if (spec.type.kind === "switch") return `--${name}`;
+  const inline = a.includes("=") ? a.slice(a.indexOf("=") + 1) : undefined;
+  const value = inline ?? (next !== undefined && !next.startsWith("-") ? next : undefined) ?? spec.example ?? spec.value ?? "VALUE";
+  return `--${name} ${value}`;
 }
 
 /** The usage fragment of one option: "--horizon H", "[--period N]", "[--json]". */

@@ -1,28 +1,64 @@
-// Reading the series of a file for a command, and fitting every series with the shared options
-// (--method, --lambda, --period), each series keeping its own message when it cannot be used.
+// Reading the file of a command (CSV or .xlsx) through the shared reader (src/io) as a table or as
+// series, and fitting every series with the shared options (--method, --lambda, --period, …), each
+// series keeping its own message when it cannot be used.
+import * as path from "path";
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
-import { DecimalMark, parseDelimiterOption, readTable, SeriesTable as CsvSeries } from "../io";
-import { Io, oneLine } from "./output";
+import { DecimalMark, parseDelimiterOption, readTable, SeriesTable } from "../io";
 import { readCsvFile } from "./csv-file";
-import { ParsedArgs } from "./options";
+import { ParsedArgs, usageError } from "./options";
+import { Io, oneLine } from "./output";
+import { SeriesData, tableSeries } from "./table";
 
 /**
  * The one file argument of a command; a usage error when there is none or more than one.
  * @example fileArgument(parsed, "fanwise screen sales.csv") // "sales.csv"
  */
 export function fileArgument(p: ParsedArgs, example: string): string {
-  if (p.positional.length !== 1) throw new EngineError("input", p.positional.length === 0 ? `Give the CSV file to read, e.g. ${example}` : `Give exactly one CSV file; got ${p.positional.length} (${p.positional.slice(0, 3).join(", ")}).`);
+  if (p.positional.length !== 1) throw new EngineError("input", p.positional.length === 0 ? `Give the CSV or .xlsx file to read, e.g. ${example}` : `Give exactly one file; got ${p.positional.length} (${p.positional.slice(0, 3).join(", ")}).`);
   return p.positional[0];
 }
 
+/** A command's file as the shared reader read it, with the notes of how its cells were read. */
+export interface InputTable {
+  table: SeriesTable;
+  /** The source's own notes (a workbook's merged cells, formulas without results). */
+  notes: string[];
+}
+
 /**
- * Reads the command's file as series (label column skipped, one series per other column).
- * @example readSeriesFile(parsed).names // ["Harbour Street", …]
+ * Reads the command's file through the shared reader: .xlsx by --sheet and --range (numbers and
+ * dates as the workbook stores them, text cells read like CSV fields), anything else as CSV
+ * (--delimiter); --decimal for both. A workbook's own notes (merged cells, formulas without
+ * results) are said on stderr. `calendar: false` reads the rows in the file's order (a forecast
+ * log repeats periods).
+ * @example (await readInputTable(parsed, io, "fanwise audit log.csv …")).table.header // ["month", "actual", …]
  */
-export function readSeriesFile(p: ParsedArgs): CsvSeries {
+export async function readInputTable(p: ParsedArgs, io: Io, example: string, options: { calendar?: boolean; keepLabels?: boolean } = {}): Promise<InputTable> {
+  const file = fileArgument(p, example);
+  const read = { calendar: options.calendar, decimal: p.choice("decimal") as DecimalMark | undefined };
+  if (path.extname(file).toLowerCase() === ".xlsx") {
+    if (p.has("delimiter")) throw usageError(`--delimiter is for CSV files; ${file} is an .xlsx workbook, whose cells need no delimiter.`);
+    const { readXlsxTable } = await import("./xlsx-read");
+    const t = await readXlsxTable(file, { sheet: p.text("sheet"), range: p.text("range") });
+    for (const n of t.notes) io.err(`fanwise: note: ${oneLine(n)}\n`);
+    return { table: readTable(t.columns, read), notes: t.notes };
+  }
+  for (const k of ["sheet", "range"]) {
+    if (p.has(k)) throw usageError(`--${k} is for .xlsx workbooks; ${file} is read as CSV (its name does not end in .xlsx).`);
+  }
   const d = p.text("delimiter");
-  const file = readCsvFile(fileArgument(p, "fanwise screen sales.csv"), d === undefined ? undefined : parseDelimiterOption(d));
-  return readTable(file, { decimal: p.choice("decimal") as DecimalMark | undefined });
+  const cols = readCsvFile(file, { delimiter: d === undefined ? undefined : parseDelimiterOption(d), keepLabels: options.keepLabels });
+  return { table: readTable(cols, read), notes: [] };
+}
+
+/**
+ * Reads the command's file as series (the period column read as the calendar, one series per
+ * column of numbers), only those named by --series when it is given.
+ * @example (await readSeriesFile(parsed, io)).names // ["Harbour Street", …]
+ */
+export async function readSeriesFile(p: ParsedArgs, io: Io): Promise<SeriesData> {
+  const t = await readInputTable(p, io, "fanwise screen sales.csv");
+  return tableSeries(t.table, t.notes, p.text("series"));
 }
 
 /** The period a command uses for a file, and where it comes from. */
@@ -37,7 +73,7 @@ export interface PeriodChoice {
  * yearly 1, weekly 52, daily 7), else 1.
  * @example periodOf(parsed, data) // { period: 12, periodFrom: "dates" }
  */
-export function periodOf(p: ParsedArgs, data: CsvSeries): PeriodChoice {
+export function periodOf(p: ParsedArgs, data: SeriesTable): PeriodChoice {
   const given = p.int("period");
   return given !== undefined ? { period: given, periodFrom: "option" } : { period: data.period, periodFrom: data.periodFrom };
 }
@@ -47,30 +83,50 @@ export function periodOf(p: ParsedArgs, data: CsvSeries): PeriodChoice {
  * CSV mode one "fanwise: note: …" line each on stderr (with --json the `reading` object says it).
  * @example reportReading(io, false, data) // stderr: "fanwise: note: Line 146 ("Total") is not a period; left out."
  */
-export function reportReading(io: Io, json: boolean, data: CsvSeries): void {
+export function reportReading(io: Io, json: boolean, data: SeriesTable): void {
   if (json) return;
   for (const n of data.reading.notes) io.err(`fanwise: note: ${oneLine(n)}\n`);
 }
 
 /**
- * Names a data row by its line in the file.
+ * The period labels of series j's H forecast steps: the periods after its last observed value (a
+ * series whose last rows are blank is forecast from its last value, so its steps start earlier
+ * than the file's end). Null when the file has no calendar (no period column of dates).
+ * @example stepLabels(data, 0, 2) // ["2026-01", "2026-02"]
+ */
+export function stepLabels(data: SeriesData, j: number, H: number): string[] | null {
+  const cal = data.calendar;
+  if (!cal || !data.next) return null;
+  const cells = data.column(j);
+  let last = cells.length - 1;
+  while (last >= 0 && (cells[last] === null || cells[last] === undefined || String(cells[last]).trim() === "")) last--;
+  const n = cal.labels.length;
+  const next = data.next;
+  return Array.from({ length: H }, (_, k) => {
+    const at = last + k + 1;
+    return at < n ? cal.labels[at] : next(at - (n - 1));
+  });
+}
+
+/**
+ * Names a data row by where it is in the file.
  * @example lineOf(data)(0) // "line 2"
  */
-export function lineOf(data: CsvSeries): (i: number) => string {
+export function lineOf(data: SeriesData): (i: number) => string {
   return data.where;
 }
 
 /**
- * Replaces "row N" and "rows N, M, …" (1-based data rows, as the engine names them) by the file's lines.
+ * Replaces "row N" and "rows N, M, …" (1-based data rows, as the engine names them) by where the
+ * rows are in the file ("line 4", or "row 5 of sheet …" for a workbook).
  * @example atLines("zeros at rows 3, 5", data) // "zeros at lines 4, 6"
  */
-export function atLines(message: string, data: CsvSeries): string {
-  return message.replace(/\b(rows?) (\d+(?:, \d+)*)/g, (_m, word: string, list: string) => {
-    const rows = list.split(", ").map((r) => Number(r) - 1);
-    const lines = rows.map((i) => data.line(i));
-    // A skipped period has no line: it is named by its date ("1950-06 (no row in the file)").
-    if (lines.every((l) => l !== null)) return `${word === "rows" ? "lines" : "line"} ${lines.join(", ")}`;
-    return rows.map((i) => data.where(i)).join(", ");
+export function atLines(message: string, data: SeriesData): string {
+  // (a workbook's place already reads "row N of sheet …", which is left as it is)
+  return message.replace(/\b(rows?) (\d+(?:, \d+)*)\b(?! of sheet)/g, (_m, word: string, list: string) => {
+    const places = list.split(", ").map((r) => data.where(Number(r) - 1));
+    if (places.every((x) => x.startsWith("line "))) return `${word === "rows" ? "lines" : "line"} ${places.map((x) => x.slice(5)).join(", ")}`;
+    return places.join(", ");
   });
 }
 
@@ -98,7 +154,7 @@ export function errorMessage(e: unknown): string {
  * Cleans one series, naming the file's lines in any message.
  * @example cleanSeriesAtLines(data.column(0), data, 0).values // [112, 118, …]
  */
-export function cleanSeriesAtLines(cells: RawCell[], data: CsvSeries, j: number, zeros: ZerosRule = "keep"): ReturnType<typeof cleanSeries> {
+export function cleanSeriesAtLines(cells: RawCell[], data: SeriesData, j: number, zeros: ZerosRule = "keep"): ReturnType<typeof cleanSeries> {
   try {
     return cleanSeries(cells, data.names[j], 1, { zeros });
   } catch (e) {
@@ -116,27 +172,48 @@ export interface SeriesFit {
 }
 
 /**
- * Fits every series of the file with --method, --lambda and --period; a series that cannot be
+ * Fits every series of the file with --method, --lambda, --transform, --shift and --period; a series that cannot be
  * fitted keeps its message.
  * @example fitAll(parsed, data)[0].f?.method // "holt-winters"
  */
-export function fitAll(p: ParsedArgs, data: CsvSeries): SeriesFit[] {
+export function fitAll(p: ParsedArgs, data: SeriesData): SeriesFit[] {
   const { period } = periodOf(p, data);
-  const method = p.text("method");
-  const lambdaFlag = p.text("lambda");
+  const method = p.value<string>("method") ?? "auto";
+  const lambda = p.value<string>("lambda") ?? "auto";
+  const transform = p.has("transform") ? p.choice("transform") : undefined;
+  const shift = p.text("shift");
   const zeros = zerosOf(p);
   return data.names.map((name, j) => {
     try {
       const cells = data.column(j);
-      const lambda = lambdaFlag === undefined ? "auto" : lambdaFlag;
-      if (lambda.toLowerCase() !== "none") {
+      if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined) {
+        // Say where the first value ≤ 0 is, by the file's line, and what works.
         const screen = screenSeries(cells, { period, label: name, where: lineOf(data), zeros, zerosOption: ZEROS_OPTION_CLI });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
-      const f = fitForecast(cells, { method: method === undefined ? "auto" : method, lambda, period, label: name, zeros });
+      const f = fitForecast(cells, { method, lambda, transform, shift, period, label: name, zeros });
       return { name, f };
     } catch (e) {
       return { name, error: atLines(errorMessage(e), data) };
     }
   });
+}
+
+/**
+ * The history of series j as drawn in a chart: its observed values (blanks dropped) with their
+ * period labels, the last `keep` of them. Where the file has no label column the labels are empty.
+ * @example chartHistory(data, 0, 36).values.length // 36
+ */
+export function chartHistory(data: SeriesData, j: number, keep: number): { values: number[]; labels: string[] } {
+  const cells = data.column(j);
+  const labels = data.labelColumn?.values ?? [];
+  const values: number[] = [];
+  const at: string[] = [];
+  cells.forEach((c, i) => {
+    if (typeof c === "number" && Number.isFinite(c)) {
+      values.push(c);
+      at.push(labels[i] ?? "");
+    }
+  });
+  return { values: values.slice(-keep), labels: at.slice(-keep) };
 }

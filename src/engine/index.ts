@@ -13,6 +13,11 @@ export { readableLambda, READABLE_LAMBDAS } from "./transform/readable";
 export { fitLambda } from "./transform/fit-lambda";
 export type { FitLambdaOptions, LambdaChoice, LambdaMethod } from "./transform/fit-lambda";
 export { DEFAULT_LAMBDA_BOUNDS } from "./transform/bounds";
+export {
+  makeTransform, transformForward, transformInverse, logJacobian, inverseSecondDerivative, exactMeanExists, poleProbability, describeTransform, TRANSFORMS,
+} from "./transform/spec";
+export type { TransformKind, TransformSpec, SpecInverse } from "./transform/spec";
+export { autoShift, parseShift } from "./transform/shift";
 
 export { screenSeries } from "./series/screen";
 export type { RawCell, ScreenResult, SuggestedFix } from "./series/screen";
@@ -27,7 +32,10 @@ export {
   backtransformQuantile,
   backtransformQuantileDetailed,
 } from "./distribution/backtransform";
+export { MEAN_METHODS } from "./distribution/backtransform";
 export type { ExactMean, MeanMethod, QuantileValue } from "./distribution/backtransform";
+export { forecastMean, parseMeanMethod, TAYLOR_NOTE_CORRECTION, TAYLOR_NOTE_POLE } from "./distribution/mean";
+export type { MeanResult } from "./distribution/mean";
 export { impliedLambda, meanFromInterval } from "./distribution/from-interval";
 export type { RecoveredForecast } from "./distribution/from-interval";
 export { cleanSeries, observedValues, countMissing, listRows, MAX_MISSING_SHARE, ZEROS_OPTION_ALL_FACES } from "./series/clean";
@@ -42,7 +50,7 @@ export { requireLevelPercent as checkLevelPercent, requireLambda as checkLambda 
 export { METHODS, SMOOTHING, parseMethod, isBenchmark } from "./models/methods";
 export type { MethodName, SmoothingMethod, BenchmarkMethod } from "./models/methods";
 export type { FittedModel, StepMoments } from "./models/types";
-export { fitSmoothing, smoothingWithParams, parameterCount, minimumLength, checkGapsFit } from "./models/ets";
+export { fitSmoothing, smoothingWithParams, smoothingAtParams, parameterCount, minimumLength, checkGapsFit, SMOOTH_LO, SMOOTH_HI, PHI_LO, PHI_HI } from "./models/ets";
 export type { Smoothing, InitialStates } from "./models/ets";
 export { fitBenchmark } from "./models/benchmarks";
 export { fitAuto } from "./models/select";
@@ -56,7 +64,9 @@ export type { ArimaOrder, ArimaSpec } from "./models/arima/order";
 export { kpss, canovaHansen } from "./models/arima/unit-root";
 export { stateSpaceMoments } from "./models/state-space";
 export type { StateSpaceForm } from "./models/state-space";
-export { fitForecast, checkHorizon } from "./models/fit";
+export { fitForecast, checkHorizon, parseTransform } from "./models/fit";
+export { chooseLambdaAuto, fitLambdaForModel, profileModelLambda, originalScaleFit, jacobianOf, aiccOf, transformSeries } from "./models/lambda-choice";
+export type { LambdaAuto, LambdaCandidate, ModelLambda, ModelLambdaOptions, OriginalScaleFit } from "./models/lambda-choice";
 export type { Forecaster, ForecastOptions, LambdaSpec } from "./models/fit";
 export { fanTable, quantileTable, totalForecast, checkWindowStart, describeForecaster, parseLevels } from "./models/fan";
 export type { FanRow, FanTable, Maybe, TotalForecast, DescriptionRow } from "./models/fan";
@@ -72,10 +82,18 @@ export type { SmearingMean } from "./totals/smearing";
 
 export { hitSequence } from "./audit/hits";
 export type { HitSequence } from "./audit/hits";
-export { kupiec, transitions, christoffersenIndependence, conditionalCoverage, binomialTail, trafficLight } from "./audit/coverage-tests";
+export { kupiec, transitions, christoffersenIndependence, independenceFromCounts, conditionalCoverage, binomialTail, trafficLight } from "./audit/coverage-tests";
+export { overlapTests } from "./audit/overlap";
+export type { StrandTests } from "./audit/overlap";
+export { verdictOf, VERDICT_HEADLINES } from "./audit/verdict";
+export type { Verdict, VerdictCode, VerdictInput } from "./audit/verdict";
+export { auditLog, POOLED } from "./audit/audit-log";
+export type { AuditLog, AuditLogInput, AuditRow, IntervalColumns } from "./audit/audit-log";
+export { calibrationTable, clopperPearson } from "./audit/calibration";
+export type { Calibration, CalibrationRow, CalibrationInterval, QuantileColumn } from "./audit/calibration";
 export type { LrTest, Transitions, Zone } from "./audit/coverage-tests";
 export { intervalScore, pinball, crpsNormal, crpsBacktransformed } from "./audit/scores";
 export { auditCoverage } from "./audit/audit";
 export type { CoverageAudit } from "./audit/audit";
-export { backtest, backtestAsync } from "./audit/backtest";
+export { backtest, backtestAsync, practicalMinimum, PRACTICAL_MINIMUM } from "./audit/backtest";
 export type { Backtest, BacktestRow, BacktestOptions } from "./audit/backtest";

@@ -179,7 +179,19 @@ export function readLambda(v: ExcelValue): string | number {
     return x;
   }
   if (typeof x === "string") return x;
-  throw new EngineError("input", `lambda must be a number or one of "auto", "guerrero", "mle", "none"; got ${describeValue(x)}.`);
+  throw new EngineError("input", `lambda must be a number or one of "auto", "model", "guerrero", "mle", "none"; got ${describeValue(x)}.`);
+}
+
+/** A shift: a number, "auto", or blank (0). */
+export function readShift(v: ExcelValue): number | string {
+  const x = singleValue(v, "shift");
+  if (x === null || x === undefined || x === "") return 0;
+  if (typeof x === "number") {
+    if (!Number.isFinite(x)) throw new EngineError("input", "shift is not a finite number.");
+    return x;
+  }
+  if (typeof x === "string") return x;
+  throw new EngineError("input", `shift must be a number or "auto"; got ${describeValue(x)}.`);
 }
 
 /** Interval levels: a cell, a range of numbers, or text like "80,95"; blank → the default. */

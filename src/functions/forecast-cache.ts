@@ -14,7 +14,7 @@ let misses = 0;
  * @example cachedForecast([1, 2, 3, 4, 5, 6], { method: "naive" }) === cachedForecast([1, 2, 3, 4, 5, 6], { method: "naive" }) // true
  */
 export function cachedForecast(cells: readonly RawCell[], options: ForecastOptions): Forecaster {
-  const key = JSON.stringify([cells, options.method ?? null, options.lambda ?? null, options.period ?? null, options.label ?? null, options.firstRow ?? null, options.zeros ?? null]);
+  const key = JSON.stringify([cells, options.method ?? null, options.lambda ?? null, options.transform ?? null, options.shift ?? null, options.period ?? null, options.label ?? null, options.firstRow ?? null, options.zeros ?? null]);
   const hit = cache.get(key);
   if (hit) {
     hits++;

@@ -5,12 +5,15 @@ import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
-import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditCoverage, pinball, backtestAsync, RawCell } from "../engine";
+import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditLog, pinball, backtestAsync, RawCell } from "../engine";
 import { publishedTotal, parseDependence, alignSeries, totalAcross, smearingMean, checkWindowStart, Forecaster } from "../engine";
-import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs } from "./coerce";
+import { fitLambdaForModel, MEAN_METHODS, TRANSFORMS, parseShift } from "../engine";
+import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs, readShift } from "./coerce";
 import { cachedForecast } from "./forecast-cache";
 import { toExcelError } from "./excel-errors";
 import { elementwise, finiteTable } from "./shape";
+import { cancelSignal, CancelSignal, NEVER_CANCELLED, withCancel } from "./cancel";
+import { auditInput, column, rowKey } from "./audit-args";
 
 function guard<T>(f: () => T): T {
   try {
@@ -85,11 +88,11 @@ export function YEOJOHNSONINV(values: any[][], lambda: number): any[][] {
 }
 
 /**
- * Chooses the Box-Cox λ for each series: λ, its 95% likelihood interval (low, high), and a readable λ.
+ * Chooses the Box-Cox λ for each series: λ, the 95% likelihood interval that belongs to it (low, high), and a readable λ. By default the λ that FW.FAN with lambda "auto" uses.
  * @customfunction FITLAMBDA
  * @helpurl https://localhost:3000/README.html#fwfitlambda
  * @param {any[][]} values The series: one per column (a header row of names is allowed). Positive numbers.
- * @param {string} [method] "guerrero" (default) or "mle" (maximum likelihood).
+ * @param {string} [method] "auto" (default: the λ forecasts with lambda "auto" use, with the chosen model's likelihood interval), "model" (the forecasting model's own maximum-likelihood λ), "guerrero" (no likelihood interval) or "mle" (i.i.d. maximum likelihood).
  * @param {number} [period] Season length: 12 for monthly, 4 for quarterly, 1 for none (default 1). Guerrero's window is the period, or 2 when it is 1.
  * @param {number} [lower] Lowest λ to consider. Default -1.
  * @param {number} [upper] Highest λ to consider. Default 2.
@@ -97,7 +100,7 @@ export function YEOJOHNSONINV(values: any[][], lambda: number): any[][] {
  */
 export function FITLAMBDA(values: any[][], method?: string, period?: number, lower?: number, upper?: number): any[][] {
   return guard(() => {
-    const m = optionalKeyword(method, "method", ["guerrero", "mle"] as const, "guerrero");
+    const m = optionalKeyword(method, "method", ["auto", "model", "guerrero", "mle"] as const, "auto");
     const p = optionalInteger(period, "period", 1, 1);
     const lo = optionalNumber(lower, "lower", -1);
     const hi = optionalNumber(upper, "upper", 2);
@@ -105,8 +108,11 @@ export function FITLAMBDA(values: any[][], method?: string, period?: number, low
     return finiteTable(s.series.map((cells, j) => {
       try {
         const clean = cleanSeries(cells, s.names[j], 1 + s.headerRows);
-        const r = fitLambda(clean.values, { method: m, period: p, lower: lo, upper: hi, label: s.names[j] });
-        return [r.lambda, r.interval[0] ?? naCell("The likelihood interval has no lower end within 10 of λ."), r.interval[1] ?? naCell("The likelihood interval has no upper end within 10 of λ."), r.readable];
+        const r = m === "auto" || m === "model"
+          ? fitLambdaForModel(clean.values, { period: p, label: s.names[j], lambdaMethod: m })
+          : fitLambda(clean.values, { method: m, period: p, lower: lo, upper: hi, label: s.names[j] });
+        const none = m === "guerrero" ? "Guerrero's method has no likelihood, so no likelihood interval belongs to its λ; use method \"mle\" or \"model\" for one." : null;
+        return [r.lambda, r.interval[0] ?? naCell(none ?? "The likelihood interval is open at the low end (the likelihood does not fall far enough)."), r.interval[1] ?? naCell(none ?? "The likelihood interval is open at the high end (the likelihood does not fall far enough)."), r.readable];
       } catch (e) {
         const err = toExcelError(e);
         return [err, err, err, err];
@@ -151,13 +157,13 @@ export function SCREEN(values: any[][], period?: number): any[][] {
  * @param {any[][]} mu Mean on the transformed scale (a cell or a range).
  * @param {any[][]} sd Standard deviation on the transformed scale, > 0 (a cell or a range the size of mu).
  * @param {number} lambda The Box-Cox λ of the forecast's scale (0 = log).
- * @param {string} [method] "taylor" (default, second-order approximation) or "exact" (integral; not defined for λ < 0).
+ * @param {string} [method] "auto" (default: exact where it exists, λ ≥ 0; Taylor for λ < 0), "exact" (integral; not defined for λ < 0) or "taylor" (second-order approximation).
  * @returns {any[][]} The mean on the original scale, same shape as mu.
  */
 export function BTMEAN(mu: any[][], sd: any[][], lambda: number, method?: string): any[][] {
   return guard(() => {
     const l = checkLambda(requiredNumber(lambda, "lambda"));
-    const m = optionalKeyword(method, "method", ["taylor", "exact"] as const, "taylor");
+    const m = optionalKeyword(method, "method", MEAN_METHODS, "auto");
     return elementwise([{ name: "mu", cells: readMatrix(mu, "mu") }, { name: "sd", cells: readMatrix(sd, "sd") }], (a, b) => backtransformMean(a, b, l, m));
   });
 }
@@ -196,7 +202,7 @@ export function BTQUANTILE(mu: any[][], sd: any[][], lambda: number, p: any[][])
  * @param {any[][]} upper The interval's upper end, same shape as median.
  * @param {number} level The interval's coverage in percent, e.g. 80 or 95.
  * @param {number} [lambda] The Box-Cox λ the forecast was made on. Default 0 (log).
- * @param {string} [method] "taylor" (default) or "exact".
+ * @param {string} [method] "auto" (default: exact where it exists, λ ≥ 0; Taylor for λ < 0), "exact" or "taylor".
  * @returns {any[][]} The mean on the original scale, same shape as median.
  */
 export function MEANFROMINTERVAL(median: any[][], lower: any[][], upper: any[][], level: number, lambda?: number, method?: string): any[][] {
@@ -204,7 +210,7 @@ export function MEANFROMINTERVAL(median: any[][], lower: any[][], upper: any[][]
     const lv = requiredNumber(level, "level");
     checkLevelPercent(lv);
     const l = checkLambda(optionalNumber(lambda, "lambda", 0));
-    const m = optionalKeyword(method, "method", ["taylor", "exact"] as const, "taylor");
+    const m = optionalKeyword(method, "method", MEAN_METHODS, "auto");
     return elementwise([
       { name: "median", cells: readMatrix(median, "median") },
       { name: "lower", cells: readMatrix(lower, "lower") },
@@ -255,21 +261,23 @@ function cell(m: Maybe): number | CustomFunctions.Error {
   return naCell(m.note ?? "This value does not exist.");
 }
 
-interface SeriesArgs { method: string; lambda: string | number; period: number }
+interface SeriesArgs { method: string; lambda: string | number; period: number; transform: string; shift: number | "auto" }
 
-function forecastArgs(method: unknown, lambda: unknown, period: unknown): SeriesArgs {
+function forecastArgs(method: unknown, lambda: unknown, period: unknown, transform?: unknown, shift?: unknown): SeriesArgs {
   // ARIMA orders are free text in the project's syntax ("arima:0,1,1/0,1,1"); the rest are keywords.
   const m = typeof method === "string" && isArimaMethod(method) ? parseMethod(method) : optionalKeyword(method, "method", METHODS, "auto");
-  return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1) };
+  const t = optionalKeyword(transform, "transform", TRANSFORMS, "box-cox");
+  return { method: m, lambda: readLambda(lambda), period: optionalInteger(period, "period", 1, 1), transform: t, shift: parseShift(readShift(shift)) };
 }
 
-async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T): Promise<{ names: string[]; results: T[] }> {
+async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnType<typeof cachedForecast>, name: string) => T, onError: (err: CustomFunctions.Error, name: string) => T, cancel: CancelSignal = NEVER_CANCELLED): Promise<{ names: string[]; results: T[] }> {
   const s = readSeries(values);
   const results: T[] = [];
+  const pause = withCancel(yieldToHost, cancel);
   for (let j = 0; j < s.series.length; j++) {
-    if (j > 0) await yieldToHost();
+    if (j > 0) await pause();
     try {
-      const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
+      const fc = cachedForecast(s.series[j], { method: args.method, lambda: args.lambda, transform: args.transform, shift: args.shift, period: args.period, label: s.names[j], firstRow: 1 + s.headerRows });
       results.push(f(fc, s.names[j]));
     } catch (e) {
       if (e instanceof EngineError && /^horizon|^levels|^each level|^probs|^each probability|^from /.test(e.message)) throw e;
@@ -283,26 +291,33 @@ async function eachSeries<T>(values: unknown, args: SeriesArgs, f: (fc: ReturnTy
  * Forecast fan for each series, back on the original scale: step, mean (for budgets), median, and the low and high ends of each interval.
  * @customfunction FAN
  * @helpurl https://localhost:3000/README.html#fwfan
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), oldest first, positive numbers.
  * @param {number} horizon How many periods ahead to forecast (a whole number, e.g. 12).
  * @param {string} [method] "auto" (default: lowest AICc among the smoothing models), "naive", "drift", "seasonal-naive", "mean", "ses", "holt", "damped", "seasonal-ses", "holt-winters", "damped-holt-winters", "arima" (automatic seasonal ARIMA) or an ARIMA order such as "arima:0,1,1" or "arima:0,1,1/0,1,1".
- * @param {any} [lambda] Box-Cox λ: a number (0 = log), "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number (0 = log), "auto" (default: readable λ and model chosen together by AICc), "model", "guerrero", "mle" or "none".
  * @param {any[][]} [levels] Interval levels in percent: a range of numbers or text like "80,95" (default 80 and 95).
  * @param {number} [period] Season length: 12 for monthly, 4 for quarterly, 1 for none (default 1).
  * @param {boolean} [header] TRUE adds a header row naming the columns (default FALSE: numbers only).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
+ * @param {string} [mean] "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
  * @returns One row per step: step, then per series mean, median, low and high for each level.
  */
-export async function FAN(values: any[][], horizon: number, method?: string, lambda?: any, levels?: any[][], period?: number, header?: boolean): Promise<any[][]> {
+export async function FAN(values: any[][], horizon: number, method?: string, lambda?: any, levels?: any[][], period?: number, header?: boolean, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(FAN, arguments);
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
+    const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
     const lv = parseLevels(readLevels(levels));
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const withHeader = optionalBoolean(header, "header", false);
     const width = 2 + 2 * lv.length;
     const { names, results } = await eachSeries(values, args, (fc) => {
-      const t = fanTable(fc, h, { levels: lv });
+      const t = fanTable(fc, h, { levels: lv, mean: meanMethod });
       return t.rows.map((r) => [cell(r.mean), cell(r.median), ...lv.flatMap((l) => [cell(r.intervals[String(l)][0]), cell(r.intervals[String(l)][1])])]);
-    }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)));
+    }, (err) => Array.from({ length: Math.max(1, Math.min(checkHorizonSafe(h), 1000)) }, () => new Array(width).fill(err)), cancel);
     const H = results[0].length;
     const out: any[][] = [];
     if (withHeader) {
@@ -321,21 +336,26 @@ function checkHorizonSafe(h: number): number {
  * Forecast quantiles on the original scale: one row per step, one column per probability (per series).
  * @customfunction QUANTILES
  * @helpurl https://localhost:3000/README.html#fwquantiles
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {number} horizon How many periods ahead (a whole number).
  * @param {any[][]} probs Probabilities strictly between 0 and 1, e.g. 0.1, 0.5, 0.9 (a cell or a row).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [period] Season length (default 1).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
  * @returns horizon rows × (probabilities × series) columns.
  */
-export async function QUANTILES(values: any[][], horizon: number, probs: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+export async function QUANTILES(values: any[][], horizon: number, probs: any[][], method?: string, lambda?: any, period?: number, transform?: string, shift?: any): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(QUANTILES, arguments);
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
     const ps = readProbs(probs);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const { results } = await eachSeries(values, args, (fc) => quantileTable(fc, h, ps).map((row) => row.map(cell)),
-      (err) => Array.from({ length: Math.min(checkHorizonSafe(h), 1000) }, () => new Array(ps.length).fill(err)));
+      (err) => Array.from({ length: Math.min(checkHorizonSafe(h), 1000) }, () => new Array(ps.length).fill(err)), cancel);
     const H = results[0].length;
     return finiteTable(Array.from({ length: H }, (_, i) => results.flatMap((r) => r[i])));
   });
@@ -345,46 +365,58 @@ export async function QUANTILES(values: any[][], horizon: number, probs: any[][]
  * Forecast of the total over the next periods (e.g. a year's budget from monthly history): mean, median, and the interval's low and high ends.
  * @customfunction TOTAL
  * @helpurl https://localhost:3000/README.html#fwtotal
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {number} horizon Number of periods to add up (e.g. 12 for a year of months).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
  * @param {number} [seed] Seed of the simulation, a whole number (default 1): the same seed gives the same answer on every recalculation.
  * @param {number} [from] First step of the window to add up (default 1): steps from..horizon are summed, e.g. from 8 and horizon 19 for next January–December after a history ending in May.
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
+ * @param {string} [mean] "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
  * @returns One row per series: mean, median, low, high.
  */
-export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number): Promise<any[][]> {
+export async function TOTAL(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, seed?: number, from?: number, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(TOTAL, arguments);
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
+    const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const sd = optionalInteger(seed, "seed", 1, 0);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const start = checkWindowStart(optionalInteger(from, "from", 1, 1), h);
     const { results } = await eachSeries(values, args, (fc) => {
-      const t = totalForecast(fc, h, { level: lv, seed: sd, from: start });
+      const t = totalForecast(fc, h, { level: lv, seed: sd, mean: meanMethod, from: start });
       return [cell(t.mean), t.median, t.interval[0], t.interval[1] ?? naCell("The total's upper end is unbounded at this λ.")];
-    }, (err) => [err, err, err, err]);
+    }, (err) => [err, err, err, err], cancel);
     return finiteTable(results);
   });
 }
 
 /**
- * Describes the fitted model: method, λ, parameters, σ, log-likelihood, AICc and n (a label column, then one column per series).
+ * Describes the fitted model: method, transform, λ (with its interval), parameters, σ, log-likelihood and AICc on the original scale, n, and which mean is shown and how accurate it is (a label column, then one column per series).
  * @customfunction MODELINFO
  * @helpurl https://localhost:3000/README.html#fwmodelinfo
+ * @cancelable
  * @param {any[][]} values The history: one series per column (a header row of names is allowed), positive numbers.
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [period] Season length (default 1).
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
  * @returns Two columns (label, value) for one series; one more value column per extra series.
  */
-export async function MODELINFO(values: any[][], method?: string, lambda?: any, period?: number): Promise<any[][]> {
+export async function MODELINFO(values: any[][], method?: string, lambda?: any, period?: number, transform?: string, shift?: any): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(MODELINFO, arguments);
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
-    const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]]);
+    const args = forecastArgs(method, lambda, period, transform, shift);
+    const { results } = await eachSeries(values, args, (fc) => describeForecaster(fc), (err) => [["error", err] as [string, any]], cancel);
     // Union of labels in first-seen order; a series without a label gets a blank.
     const labels: string[] = [];
     for (const r of results) for (const [k] of r) if (!labels.includes(k)) labels.push(k);
@@ -392,46 +424,43 @@ export async function MODELINFO(values: any[][], method?: string, lambda?: any, 
   });
 }
 
-function column(v: unknown, name: string): RawCell[] {
-  const m = readMatrix(v, name);
-  if (m.length > 1 && m[0].length > 1) throw new EngineError("input", `${name} must be a single column or a single row; it is ${m.length}×${m[0].length}.`);
-  return m.length === 1 ? m[0] : m.map((r) => r[0]);
-}
-
 /**
- * Checks how often past intervals contained what happened: n, misses, observed coverage, and the Kupiec, independence, conditional-coverage and binomial-tail p-values, with the mean interval score.
+ * Checks how often past intervals contained what happened: n, misses, observed coverage, the Kupiec, independence, conditional-coverage and binomial-tail p-values, the mean interval score, the zone and one verdict. With groups: one row per series plus a pooled row; with horizons: per step ahead; with several levels: per level.
  * @customfunction COVERAGE
  * @helpurl https://localhost:3000/README.html#fwcoverage
  * @param {any[][]} actuals What happened, one per row (blanks are skipped).
- * @param {any[][]} lower The lower ends of the published intervals, same rows.
- * @param {any[][]} upper The upper ends, same rows.
- * @param {number} level The intervals' promised coverage in percent, e.g. 80 or 95.
- * @returns {any[][]} One row: n, misses, observed coverage, Kupiec p, independence p, conditional-coverage p, binomial tail p, mean interval score.
+ * @param {any[][]} lower The lower ends of the published intervals, same rows (one column per level).
+ * @param {any[][]} upper The upper ends, same rows (one column per level).
+ * @param {any} level The promised coverage in percent, e.g. 80; several as "80,95" or a range, one per column of lower and upper.
+ * @param {any[][]} [groups] The series name of each row: one result row per series plus a pooled row "all groups".
+ * @param {any[][]} [horizons] Steps ahead of each row (1, 2, 3, …): results per step; for h > 1 the tests use every h-th origin.
+ * @returns {any[][]} Per row: [group], [step], [level] (each only when used), n, misses, observed coverage, Kupiec p, independence p, conditional-coverage p, binomial tail p, mean interval score, zone, verdict.
  */
-export function COVERAGE(actuals: any[][], lower: any[][], upper: any[][], level: number): any[][] {
+export function COVERAGE(actuals: any[][], lower: any[][], upper: any[][], level: any, groups?: any[][], horizons?: any[][]): any[][] {
   return guard(() => {
-    const lv = requiredNumber(level, "level");
-    checkLevelPercent(lv);
-    const a = auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv);
-    return finiteTable([[a.n, a.misses, a.coverage, a.kupiec.p, a.independence.p, a.conditional.p, a.binomialTail, a.intervalScore]]);
+    const a = auditLog(auditInput(actuals, lower, upper, level, groups, horizons));
+    return finiteTable(a.rows.map((r) => [
+      ...rowKey(a, r), r.n, r.misses, r.coverage, r.kupiec.p, r.independence.p, r.conditional.p, r.binomialTail, r.intervalScore, r.verdict.colour, r.verdict.headline,
+    ]));
   });
 }
 
 /**
- * Mean interval (Winkler) score of past intervals: width plus a penalty for each miss. Lower is better.
+ * Mean interval (Winkler) score of past intervals: width plus a penalty for each miss. Lower is better. With groups, horizons or several levels: one row each (and a pooled row).
  * @customfunction INTERVALSCORE
  * @helpurl https://localhost:3000/README.html#fwintervalscore
  * @param {any[][]} actuals What happened, one per row (blanks are skipped).
- * @param {any[][]} lower The lower ends of the intervals, same rows.
- * @param {any[][]} upper The upper ends, same rows.
- * @param {number} level The intervals' coverage in percent, e.g. 80 or 95.
- * @returns {number} The mean interval score, in the units of the data.
+ * @param {any[][]} lower The lower ends of the intervals, same rows (one column per level).
+ * @param {any[][]} upper The upper ends, same rows (one column per level).
+ * @param {any} level The intervals' coverage in percent, e.g. 80; several as "80,95" or a range.
+ * @param {any[][]} [groups] The series name of each row: one score per series plus the pooled score.
+ * @param {any[][]} [horizons] Steps ahead of each row: one score per step.
+ * @returns {any[][]} The mean interval score in the units of the data; with groups, horizons or several levels, [group], [step], [level] and the score per row.
  */
-export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], level: number): number {
+export function INTERVALSCORE(actuals: any[][], lower: any[][], upper: any[][], level: any, groups?: any[][], horizons?: any[][]): any[][] {
   return guard(() => {
-    const lv = requiredNumber(level, "level");
-    checkLevelPercent(lv);
-    return finiteResult(auditCoverage(column(actuals, "actuals"), column(lower, "lower"), column(upper, "upper"), lv).intervalScore, "The mean interval score");
+    const a = auditLog(auditInput(actuals, lower, upper, level, groups, horizons));
+    return finiteTable(a.rows.map((r) => [...rowKey(a, r), finiteResult(r.intervalScore, "The mean interval score")]));
   });
 }
 
@@ -465,29 +494,36 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
 }
 
 /**
- * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, and the mean error of the mean and of the median.
+ * Backtests the method on your own history (rolling origin): per step ahead, the number of origins, the coverage of the interval, the mean interval score, the mean error of the mean and of the median, Kupiec's p-value and a verdict.
  * @customfunction BACKTEST
  * @helpurl https://localhost:3000/README.html#fwbacktest
+ * @cancelable
  * @param {any[][]} values The history, oldest first, one column (a header cell is allowed).
  * @param {number} horizon Steps ahead to check (a whole number).
  * @param {string} [method] Forecasting method (default "auto"); see FW.FAN.
- * @param {any} [lambda] Box-Cox λ: a number, "auto" (default), "guerrero", "mle" or "none".
+ * @param {any} [lambda] λ: a number, "auto" (default), "model", "guerrero", "mle" or "none".
  * @param {number} [level] Interval level in percent (default 95).
  * @param {number} [period] Season length (default 1).
  * @param {number} [first] Length of the first fitting window (default: the smallest the method needs, or the latest 500 origins of a long series).
- * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median.
+ * @param {string} [transform] "box-cox" (default), "yeo-johnson" (accepts zeros and negatives) or "none".
+ * @param {any} [shift] Added to every value before Box-Cox: a number, or "auto" (for zeros). Default 0.
+ * @param {string} [mean] The mean scored: "auto" (default: exact where it exists, Taylor for λ < 0), "exact" or "taylor".
+ * @returns One row per step ahead: step, origins, coverage, mean interval score, mean error of the mean, mean error of the median, Kupiec p, verdict.
  */
-export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number): Promise<any[][]> {
+export async function BACKTEST(values: any[][], horizon: number, method?: string, lambda?: any, level?: number, period?: number, first?: number, transform?: string, shift?: any, mean?: string): Promise<any[][]> {
+  // eslint-disable-next-line prefer-rest-params -- Excel passes the CancelableInvocation after the declared arguments (cancel.ts)
+  const cancel = cancelSignal(BACKTEST, arguments);
   return guardAsync(async () => {
-    const args = forecastArgs(method, lambda, period);
+    const args = forecastArgs(method, lambda, period, transform, shift);
+    const meanMethod = optionalKeyword(mean, "mean", MEAN_METHODS, "auto");
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
     const f = first === null || first === undefined ? undefined : optionalInteger(first, "first", 2, 2);
     const s = readSeries(values);
     if (s.series.length !== 1) throw new EngineError("input", `FW.BACKTEST checks one series at a time; the range has ${s.series.length} columns.`);
-    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, yieldToHost);
-    return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? ""]));
+    const b = await backtestAsync(s.series[0], h, { method: args.method, lambda: args.lambda, transform: args.transform, shift: args.shift, mean: meanMethod, period: args.period, level: lv, first: f, label: s.names[0], firstRow: 1 + s.headerRows }, withCancel(yieldToHost, cancel));
+    return finiteTable(b.rows.map((r) => [r.h, r.origins, r.coverage ?? "", r.intervalScore ?? "", r.meanErrorOfMean ?? "", r.meanErrorOfMedian ?? "", r.kupiecP ?? "", r.verdict?.headline ?? ""]));
   });
 }
 
@@ -568,7 +604,7 @@ export async function TOTALACROSS(values: any[][], horizon: number, method?: str
     const lv = optionalNumber(level, "level", 95);
     checkLevelPercent(lv);
     const sd = optionalInteger(seed, "seed", 1, 0);
-    const h = checkHorizon(requiredNumber(horizon, "horizon"), Number.MAX_SAFE_INTEGER);
+    const h = checkHorizon(requiredNumber(horizon, "horizon"), Math.max(1, Array.isArray(values) ? values.length : 1));
     const start = checkWindowStart(optionalInteger(from, "from", 1, 1), h);
     const s = readSeries(values);
     if (s.series.length < 2) throw new EngineError("input", `FW.TOTALACROSS adds up several series, one per column; the range has ${s.series.length}. For one series use FW.TOTAL.`);

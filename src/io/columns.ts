@@ -17,6 +17,8 @@ export const COMMA3 = 2;
 export const TEXT = 3;
 /** A period label (parsed; its family in `shape`). */
 export const LABEL = 4;
+/** A number stored as a number by its source (a workbook cell): no written form to decide. */
+export const VALUE = 5;
 
 export const FAMILIES: LabelFamily[] = ["ym", "my", "ymd", "dmy", "slash", "mon", "q", "year", "serial"];
 
@@ -74,6 +76,15 @@ export class Column {
     this.texts.set(i, t);
   }
 
+  /** Adds a number its source stored as a number (a workbook cell); non-finite is blank. */
+  addValue(i: number, v: number): void {
+    if (i >= this.kinds.length) this.reserve(Math.max(1024, Math.ceil(this.kinds.length * 1.5)));
+    if (!Number.isFinite(v)) { this.kinds[i] = BLANK; return; }
+    this.nonBlank++;
+    this.kinds[i] = VALUE;
+    this.nums[i] = v;
+  }
+
   /** Makes room for n rows. */
   reserve(n: number): void {
     if (n <= this.kinds.length) return;
@@ -97,6 +108,7 @@ export class Column {
         return `${this.nums[i] < 0 ? "-" : ""}${Math.floor(v / 1000)},${String(v % 1000).padStart(3, "0")}`;
       }
       case LABEL: return labelText(this.label(i) as LabelParts);
+      case VALUE: return String(this.nums[i]);
       default: return this.texts.get(i) ?? "";
     }
   }
@@ -140,8 +152,10 @@ function headerOnly(): EngineError {
 /**
  * Trims the header's names, refuses a first row that is all numbers (the file has no header), and
  * makes repeated names unique ("sales", "sales (2)") so no column is lost in the JSON output.
+ * Common practice.
+ * @example checkHeader([" month", "sales", "sales"]) // ["month", "sales", "sales (2)"]
  */
-function checkHeader(fields: string[]): string[] {
+export function checkHeader(fields: string[]): string[] {
   const names = fields.map((h) => h.trim());
   if (names.every((h) => PLAIN.test(h) || COMMA_GROUP.test(h) || /^-?\d+(\.\d+)?[eE][-+]?\d+$/.test(h))) {
     throw new EngineError("input", `The first row (${names.slice(0, 3).join(",")}${names.length > 3 ? ",…" : ""}) is numbers, not column names. Add a header row naming the columns, e.g. month,sales.`);
@@ -168,8 +182,30 @@ export class CsvColumns {
   /**
    * @param keepLabels keep the text of a label column named as such (for row labels).
    * @param delimiter the delimiter the records were split with, and how it was decided (for the report).
+   * @param place how a row is named in messages from its line ("line 12"; a workbook: "row 12 of sheet …").
    */
-  constructor(private readonly keepLabels = true, readonly delimiter: Delimiter = ",", readonly delimiterFrom: DelimiterFrom = "default") {}
+  constructor(private readonly keepLabels = true, readonly delimiter: Delimiter = ",", readonly delimiterFrom: DelimiterFrom = "default", readonly place: (line: number) => string = (l) => `line ${l}`) {}
+
+  /** Data row i (0-based) in words for messages: "line 12", or the source's own naming. */
+  where(i: number): string {
+    return this.place(this.line(i));
+  }
+
+  /**
+   * Adds one data row of cells as a workbook stores them (after the header, given with {@link add}):
+   * numbers stay numbers (no written form to decide), text is read like a CSV field, null is blank.
+   */
+  addCells(cells: (number | string | null)[], line: number): void {
+    if (cells.length !== this.header.length) throw new EngineError("input", `Row ${line} has ${cells.length} cells but the header has ${this.header.length}.`);
+    const i = this.rows++;
+    if (i >= this.lineNos.length) this.reserve(Math.max(1024, Math.ceil(this.lineNos.length * 1.5)));
+    this.lineNos[i] = line;
+    for (let j = 0; j < cells.length; j++) {
+      const v = cells[j];
+      if (typeof v === "number") this.cols[j].addValue(i, v);
+      else this.cols[j].add(i, v ?? "");
+    }
+  }
 
   /** Adds one record: the first is the header, the rest data rows of the same width. */
   add(fields: string[], line: number): void {

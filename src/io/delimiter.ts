@@ -4,7 +4,8 @@ import { EngineError } from "../engine";
 import type { Delimiter } from "./records";
 
 /** How the delimiter was decided. */
-export type DelimiterFrom = "option" | "sep-line" | "detected" | "default";
+/** How the delimiter was decided; "workbook": the table came as cells (an .xlsx sheet), no delimiter. */
+export type DelimiterFrom = "option" | "sep-line" | "detected" | "default" | "workbook";
 
 /** The delimiter of a text, and how much of its start to skip (a `sep=` line). */
 export interface DelimiterChoice {

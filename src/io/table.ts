@@ -3,7 +3,7 @@
 // (a "Total" row) left out with a note. Every decision is reported (`reading`).
 import { EngineError, RawCell } from "../engine";
 import { Calendar, calendarFor, Frequency, LabelledRow } from "./calendar";
-import { BLANK, Column, COMMA3, CsvColumns, LABEL, NUM, TEXT } from "./columns";
+import { BLANK, Column, COMMA3, CsvColumns, LABEL, NUM, TEXT, VALUE } from "./columns";
 import { delimiterName, DelimiterFrom, likelyDelimiter } from "./delimiter";
 import { DecimalMark, looksNumeric, markEvidence, NegativeStyle, parseNumberText } from "./numbers";
 import { LabelFamily, LabelParts, parsePeriodLabel } from "./period-labels";
@@ -106,6 +106,12 @@ function labelReading(c: Column, rows: number, index: number): LabelReading | nu
     const shape = c.shape[i];
     const intDigits = shape >> 4;
     const frac = shape & 15;
+    if (c.kinds[i] === VALUE) {
+      // A workbook's number: a year under a period header (or in the first column), or a serial date under a date header.
+      if (Number.isInteger(v) && v >= 1000 && v <= 2999 && (c.labelByName || index === 0)) return { family: "year", y: v, a: 0, b: 0, format: "yyyy" };
+      if (Number.isInteger(v) && v >= 3000 && v < 2958466 && DATE_HEADER.test(c.name)) return { family: "serial", y: v, a: 0, b: 0, format: "spreadsheet serial date" };
+      return null;
+    }
     if (frac === 0 && intDigits === 4 && v >= 1000 && v <= 2999 && (c.labelByName || index === 0)) return { family: "year", y: v, a: 0, b: 0, format: "yyyy" };
     if (frac === 4 && intDigits <= 2 && v >= 1 && v < 13) {
       const p = parsePeriodLabel(c.text(i));
@@ -117,7 +123,7 @@ function labelReading(c: Column, rows: number, index: number): LabelReading | nu
   const parts: (LabelParts | null)[] = new Array(rows);
   for (let i = 0; i < rows; i++) {
     const k = c.kinds[i];
-    const p = k === LABEL ? c.label(i) : k === NUM ? asNumber(i) : null;
+    const p = k === LABEL ? c.label(i) : k === NUM || k === VALUE ? asNumber(i) : null;
     parts[i] = p;
     if (p) counts.set(p.family, (counts.get(p.family) ?? 0) + 1);
   }
@@ -165,7 +171,7 @@ function isSeriesColumn(c: Column, rows: number): boolean {
   let numeric = 0;
   for (let i = 0; i < rows; i++) {
     const k = c.kinds[i];
-    if (k === NUM || k === COMMA3 || (k === TEXT && looksNumeric(c.texts.get(i) ?? ""))) numeric++;
+    if (k === NUM || k === VALUE || k === COMMA3 || (k === TEXT && looksNumeric(c.texts.get(i) ?? ""))) numeric++;
   }
   return numeric * 2 >= c.nonBlank;
 }
@@ -186,7 +192,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
   const delimiter: Delimiter = cols.delimiter;
   const fix = options.decimalFix ?? ((m: DecimalMark) => `--decimal ${m}`);
   const notes: string[] = [];
-  const fileLine = (i: number): string => `line ${cols.line(i)}`;
+  const fileLine = (i: number): string => cols.where(i);
   // 1. The period column.
   let calCol = -1;
   let lr: LabelReading | null = null;
@@ -226,13 +232,13 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     }
     calendar = calendarFor(labelled, c.name, fileLine);
     keep = calendar.order;
-    for (const l of leftOut) notes.push(`Line ${l.line} (${l.label === "" ? "no period label" : `"${l.label}"`}) is not a period; left out.`);
+    for (const l of leftOut) notes.push(`${cap(cols.place(l.line))} (${l.label === "" ? "no period label" : `"${l.label}"`}) is not a period; left out.`);
     if (calendar.reversed) notes.push(`The rows were newest first; they are read in time order.`);
     if (calendar.sorted) notes.push(`The rows were not in time order; they are read sorted by "${c.name}".`);
     if (calendar.skipped.length) notes.push(`No row for ${listOf(calendar.skipped)}: ${calendar.skipped.length === 1 ? "that period is" : "those periods are"} a missing observation (blank) at ${calendar.skipped.length === 1 ? "its" : "their"} place.`);
   }
   if (seriesIdx.length === 0) {
-    const hint = cols.cols.length === 1 ? likelyDelimiter(cols.sample, delimiter) : null;
+    const hint = cols.cols.length === 1 && cols.delimiterFrom !== "workbook" ? likelyDelimiter(cols.sample, delimiter) : null;
     if (hint) throw new EngineError("input", `The file reads as one column with ${delimiterName(delimiter)}s as the delimiter, but its lines hold ${delimiterName(hint)}s: read it with ${(options.delimiterFix ?? ((d: string) => `--delimiter ${d}`))(hint === "\t" ? "tab" : hint)}.`);
     throw new EngineError("input", "No column of numbers was found. Each series needs a column of numbers under its name.");
   }
@@ -258,7 +264,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
       from = "values";
     } else if (x.ambiguous === 0) { mark = "."; from = "none"; }
     else if (fileDot !== fileComma) { mark = fileDot ? "." : ","; from = "file"; }
-    else if (delimiter === ";" || delimiter === ",") { mark = delimiter === ";" ? "," : "."; from = "delimiter"; }
+    else if (cols.delimiterFrom !== "workbook" && (delimiter === ";" || delimiter === ",")) { mark = delimiter === ";" ? "," : "."; from = "delimiter"; }
     else {
       mark = ".";
       from = "values";
@@ -286,7 +292,10 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
       if (i < 0) { out.push(null); continue; }
       const k = c.kinds[i];
       if (k === BLANK) out.push(null);
-      else if (k === NUM) {
+      else if (k === VALUE) {
+        out.push(c.nums[i]);
+        if (c.nums[i] < 0) negatives.add("minus");
+      } else if (k === NUM) {
         const val = c.nums[i];
         if (mark === ".") out.push(val);
         else {
@@ -337,7 +346,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
   const line = (i: number): number | null => (keep[i] === undefined ? null : keep[i] < 0 ? null : cols.line(keep[i]));
   const where = (i: number): string => {
     const l = line(i);
-    return l === null ? `${calendar?.labels[i] ?? `row ${i + 1}`} (no row in the file)` : `line ${l}`;
+    return l === null ? `${calendar?.labels[i] ?? `row ${i + 1}`} (no row in the file)` : cols.place(l);
   };
   const dates: DatesReading | null = calendar && calCol >= 0 ? {
     column: cols.cols[calCol].name, format: calendar.format, frequency: calendar.frequency,
@@ -345,7 +354,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     skipped: calendar.skipped, reversed: calendar.reversed, sorted: calendar.sorted,
   } : null;
   const reading: Reading = {
-    delimiter: delimiter === "\t" ? "tab" : delimiter,
+    delimiter: cols.delimiterFrom === "workbook" ? "none" : delimiter === "\t" ? "tab" : delimiter,
     delimiterFrom: cols.delimiterFrom,
     dates, columns, leftOut, ignored, notes,
   };
@@ -372,6 +381,10 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
       return Array.from(keep, (i) => (i < 0 || c.kinds[i] === BLANK ? null : c.text(i)));
     },
   };
+}
+
+function cap(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
 }
 
 function listOf(xs: string[]): string {

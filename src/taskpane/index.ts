@@ -6,11 +6,15 @@
 import "../functions/functions";
 import { RawCell, parseLevels, backtestAsync } from "../engine";
 import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
-import { auditView, checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
+import { auditLogView, groupChoices } from "./audit-view";
+import { checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
 import { pastedData } from "./paste";
 import { publishedView } from "./views/published";
 import { acrossRowView, totalOverSentence } from "./views/totals";
-import { columnAddress, readSelection, writeFan } from "./excel-io";
+import { addSelectionHandler, columnAddress, readSelection, writeFan } from "./excel-io";
+import { followWhileVisible, SelectionFollower } from "./selection-follow";
+import { formatWhole } from "./locale";
+import { applyOfficeTheme } from "./theme";
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
 
@@ -59,12 +63,19 @@ function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, cls?: 
   return e;
 }
 
+/** The transform select as engine options: Box-Cox, Box-Cox with shift "auto", or Yeo-Johnson. */
+function transformControl(): { transform: string; shift: string } {
+  const v = $<HTMLSelectElement>("fw-transform").value;
+  return v === "box-cox-shift" ? { transform: "box-cox", shift: "auto" } : { transform: v, shift: "" };
+}
+
 function controls(): FanControls {
   const mode = $<HTMLSelectElement>("fw-lambda-mode").value;
   return {
     series: state.series,
     method: $<HTMLSelectElement>("fw-method").value,
     lambda: mode === "typed" ? $<HTMLInputElement>("fw-lambda-value").value : mode,
+    ...transformControl(),
     horizon: Number($<HTMLInputElement>("fw-horizon").value),
     period: Number($<HTMLInputElement>("fw-period").value),
     levels: $<HTMLInputElement>("fw-levels").value,
@@ -150,7 +161,7 @@ function renderSeriesSelect(): void {
 }
 
 function fmtCell(v: number | null): string {
-  return v === null ? "n/a" : Math.abs(v) >= 1000 ? Math.round(v).toLocaleString("en-GB") : String(Number(v.toPrecision(4)));
+  return v === null ? "n/a" : Math.abs(v) >= 1000 ? formatWhole(v) : String(Number(v.toPrecision(4)));
 }
 
 function renderFan(): void {
@@ -177,7 +188,7 @@ function renderFan(): void {
     const doc = new DOMParser().parseFromString(view.svg, "image/svg+xml");
     chart.replaceChildren(document.importNode(doc.documentElement, true));
     readout.replaceChildren();
-    for (const [k, v] of [["method", view.readout.method], ["λ", view.readout.lambda], ["σ", view.readout.sigma], ["AICc", view.readout.aicc]]) {
+    for (const [k, v] of [["method", view.readout.method], ["λ", view.readout.lambda], ["σ", view.readout.sigma], ["AICc", view.readout.aicc], ["mean", view.readout.mean]]) {
       readout.appendChild(el("dt", k));
       readout.appendChild(el("dd", v));
     }
@@ -323,9 +334,29 @@ function renderAuditSelects(): void {
   const m = /(\d+(?:\.\d+)?)/.exec(names[picks[1][1]] ?? "");
   // A level in the lower end's name ("lower80", "low 95%"); a column number ("column 1") is not one.
   if (m && Number(m[1]) >= 50 && Number(m[1]) < 100) $<HTMLInputElement>("fw-audit-level").value = m[1];
+  const group = $<HTMLSelectElement>("fw-audit-group");
+  const gc = groupChoices(state.data);
+  group.replaceChildren(...gc.options.map(([value, label]) => {
+    const o = el("option", label);
+    o.value = value;
+    return o;
+  }));
+  group.value = gc.pick;
   $("fw-audit-readout").replaceChildren();
-  $("fw-audit-strip").replaceChildren();
+  clearAudit();
+}
+
+function clearAudit(): void {
+  for (const id of ["fw-audit-readout", "fw-audit-strip", "fw-audit-calibration", "fw-audit-notes"]) $(id).replaceChildren();
   $("fw-audit-verdict").textContent = "";
+  $("fw-audit-headline").textContent = "";
+  $("fw-audit-headline").className = "fw-verdict";
+  $("fw-audit-show-row").hidden = true;
+}
+
+function svgNode(svg: string): Node {
+  const doc = new DOMParser().parseFromString(svg, "image/svg+xml");
+  return document.importNode(doc.documentElement, true);
 }
 
 function renderPublishedSelects(): void {
@@ -388,26 +419,37 @@ function renderPublished(): void {
 }
 
 function renderAudit(): void {
-  const v = auditView(state.data, Number($<HTMLSelectElement>("fw-audit-actual").value), Number($<HTMLSelectElement>("fw-audit-lower").value), Number($<HTMLSelectElement>("fw-audit-upper").value), Number($<HTMLInputElement>("fw-audit-level").value));
+  const show = $<HTMLSelectElement>("fw-audit-show");
+  const v = auditLogView(state.data, {
+    actual: Number($<HTMLSelectElement>("fw-audit-actual").value), lower: Number($<HTMLSelectElement>("fw-audit-lower").value), upper: Number($<HTMLSelectElement>("fw-audit-upper").value),
+    level: Number($<HTMLInputElement>("fw-audit-level").value), group: $<HTMLSelectElement>("fw-audit-group").value, show: show.value || undefined,
+  });
   const err = $("fw-audit-error");
-  const readout = $("fw-audit-readout");
   if (!v.ok) {
     err.hidden = false;
     err.textContent = v.message;
-    readout.replaceChildren();
-    $("fw-audit-strip").replaceChildren();
-    $("fw-audit-verdict").textContent = "";
+    clearAudit();
     return;
   }
   err.hidden = true;
-  readout.replaceChildren();
+  clearAudit();
+  if (v.choices.length) {
+    show.replaceChildren(...v.choices.map((g) => el("option", g)));
+    show.value = v.shown;
+    $("fw-audit-show-row").hidden = false;
+  }
+  const head = $("fw-audit-headline");
+  head.textContent = `${v.shown ? `${v.shown}: ` : ""}${v.row.verdict.headline} (zone ${v.colour})`;
+  head.className = `fw-verdict zone-${v.colour}`;
+  const readout = $("fw-audit-readout");
   for (const [k, val] of v.lines) {
     readout.appendChild(el("dt", k));
     readout.appendChild(el("dd", val));
   }
-  const doc = new DOMParser().parseFromString(v.strip, "image/svg+xml");
-  $("fw-audit-strip").replaceChildren(document.importNode(doc.documentElement, true));
-  $("fw-audit-verdict").textContent = v.audit.verdict;
+  if (v.strip) $("fw-audit-strip").replaceChildren(svgNode(v.strip));
+  $("fw-audit-calibration").replaceChildren(svgNode(v.calibration));
+  $("fw-audit-verdict").textContent = v.verdict;
+  $("fw-audit-notes").replaceChildren(...v.notes.map((n) => el("li", n)));
 }
 
 async function runBacktest(): Promise<void> {
@@ -420,7 +462,7 @@ async function runBacktest(): Promise<void> {
   try {
     let last = 0;
     const b = await backtestAsync(state.data.columns[c.series], Math.min(c.horizon, 12), {
-      method: c.method, lambda: c.lambda === "typed" ? "auto" : c.lambda, period: c.period, zeros: c.zeros, level: 80, label: state.data.names[c.series],
+      method: c.method, lambda: c.lambda === "typed" ? "auto" : c.lambda, transform: c.transform, shift: c.shift || undefined, period: c.period, zeros: c.zeros, level: 80, label: state.data.names[c.series],
       onProgress: (done, total) => { bar.max = total; bar.value = done; },
     }, () => {
       const now = performance.now();
@@ -431,7 +473,7 @@ async function runBacktest(): Promise<void> {
     const t = el("table", undefined, "fw-table");
     t.appendChild(el("caption", `Rolling-origin backtest of ${state.data.names[c.series]} (80% intervals; error = actual − forecast).`));
     const head = el("tr");
-    for (const h of ["h", "origins", "coverage", "error of mean", "error of median"]) {
+    for (const h of ["h", "origins", "coverage", "Kupiec p", "error of mean", "error of median"]) {
       const th = el("th", h);
       th.scope = "col";
       head.appendChild(th);
@@ -443,12 +485,17 @@ async function runBacktest(): Promise<void> {
       tr.appendChild(el("td", String(r.h), "num"));
       tr.appendChild(el("td", String(r.origins), "num"));
       tr.appendChild(el("td", r.coverage === null ? "n/a" : `${(100 * r.coverage).toFixed(0)}%`, "num"));
+      tr.appendChild(el("td", r.kupiecP === null ? "n/a" : r.kupiecP < 0.001 ? r.kupiecP.toExponential(1) : r.kupiecP.toFixed(3), "num"));
       tr.appendChild(el("td", fmtCell(r.meanErrorOfMean), "num"));
       tr.appendChild(el("td", fmtCell(r.meanErrorOfMedian), "num"));
       body.appendChild(tr);
     }
     t.appendChild(body);
-    out.replaceChildren(t);
+    // One verdict per step (the audit's rule), and which origins were used.
+    const verdicts = el("ul");
+    verdicts.className = "fw-backtest-verdicts";
+    for (const r of b.rows) if (r.verdict) verdicts.appendChild(el("li", `h = ${r.h}: ${r.verdict.headline} (zone ${r.verdict.colour})`, `zone-${r.verdict.colour}`));
+    out.replaceChildren(t, verdicts, el("p", b.originNote, "fw-note"));
   } catch (e) {
     out.textContent = e instanceof Error ? e.message : String(e);
   } finally {
@@ -506,6 +553,7 @@ function exportPng(): void {
 function wire(): void {
   $("fw-series").addEventListener("change", (e) => selectSeries(Number((e.target as HTMLSelectElement).value)));
   $("fw-method").addEventListener("change", renderFan);
+  $("fw-transform").addEventListener("change", renderFan);
   $("fw-lambda-mode").addEventListener("change", () => { showLambdaTyped(); renderFan(); });
   $("fw-lambda-value").addEventListener("input", () => {
     $<HTMLInputElement>("fw-lambda-slider").value = $<HTMLInputElement>("fw-lambda-value").value;
@@ -543,7 +591,12 @@ function wire(): void {
     renderAll();
   });
   $("fw-write-go").addEventListener("click", () => void writeToSheet());
-  $("fw-audit-go").addEventListener("click", renderAudit);
+  $("fw-write-overwrite").addEventListener("click", () => void writeToSheet(true));
+  $("fw-audit-go").addEventListener("click", () => {
+    $<HTMLSelectElement>("fw-audit-show").replaceChildren();
+    renderAudit();
+  });
+  $("fw-audit-show").addEventListener("change", renderAudit);
   $("fw-pub-go").addEventListener("click", renderPublished);
   $("fw-pub-controls").addEventListener("submit", (e) => e.preventDefault());
   $("fw-audit-controls").addEventListener("submit", (e) => e.preventDefault());
@@ -557,8 +610,10 @@ function wire(): void {
   showLambdaTyped();
 }
 
-async function writeToSheet(): Promise<void> {
+async function writeToSheet(overwrite = false): Promise<void> {
   const msg = $("fw-write-msg");
+  const confirm = $<HTMLButtonElement>("fw-write-overwrite");
+  confirm.hidden = true;
   const c = controls();
   if (!state.data.address) {
     msg.textContent = "Select the data range first.";
@@ -566,7 +621,13 @@ async function writeToSheet(): Promise<void> {
   }
   try {
     const formula = fanFormula(columnAddress(state.data.address, state.data.rangeColumns?.[c.series] ?? c.series), c);
-    const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked);
+    // Checks what is in the way first and asks before overwriting (excel-io.ts, write-plan.ts).
+    const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked, { overwrite });
+    if (!r.written) {
+      msg.textContent = `Nothing written yet: ${r.note}`;
+      confirm.hidden = false;
+      return;
+    }
     msg.textContent = `${r.note} (${r.formulaAt})`;
   } catch (e) {
     msg.textContent = `Could not write to the sheet: ${e instanceof Error ? e.message : String(e)}`;
@@ -587,9 +648,11 @@ function standalone(): void {
 
 async function inExcel(): Promise<void> {
   state.inExcel = true;
+  applyOfficeTheme(document.documentElement, Office.context.officeTheme);
   $("fw-write").hidden = false;
   const refresh = async (): Promise<void> => {
     try {
+      applyOfficeTheme(document.documentElement, Office.context.officeTheme); // the user may have changed it meanwhile
       state.data = await readSelection();
       if (state.series >= state.data.columns.length) state.series = 0;
       usePeriodOfData();
@@ -598,12 +661,21 @@ async function inExcel(): Promise<void> {
       $("fw-source").textContent = e instanceof Error ? e.message : String(e);
     }
   };
-  await refresh();
-  await Excel.run(async (ctx) => {
-    ctx.workbook.onSelectionChanged.add(async () => later(() => void refresh(), 300));
-    await ctx.sync();
+  // Read the selection and follow it only while the pane is visible (selection-follow.ts says why).
+  follower = new SelectionFollower({
+    addSelectionHandler,
+    refresh,
+    stopWork: () => {
+      if (timer) clearTimeout(timer);
+      state.checkRun++;
+      state.checking = false;
+    },
+    schedule: (f) => later(f, 300),
   });
+  await followWhileVisible(follower, typeof Office.addin === "undefined" ? undefined : Office.addin, document.visibilityState === "hidden");
 }
+
+let follower: SelectionFollower | null = null;
 
 /** For tests and the in-browser benchmark: set data, re-render, and read the last render time. */
 (globalThis as unknown as { fanwisePane: unknown }).fanwisePane = {
@@ -619,6 +691,9 @@ async function inExcel(): Promise<void> {
   get renders(): number { return state.renders; },
   get checking(): boolean { return state.checking; },
   get checkSlices(): number { return state.checkSlices; },
+  get following(): { visible: boolean; listening: boolean; refreshes: number } | null {
+    return follower ? { visible: follower.isVisible, listening: follower.listening, refreshes: follower.refreshes } : null;
+  },
 };
 
 function start(): void {

@@ -1,7 +1,9 @@
 // The pane's view model: raw columns and control values in, everything the pane shows out.
 // Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
-import { auditCoverage, CoverageAudit, describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
-import { fanChartSvg } from "./chart/fan-chart";
+import { describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
+import { fanChartSvg } from "../chart/fan-chart";
+import { FW_NAMESPACE } from "./namespace";
+import { formatWhole } from "./locale";
 
 /** The data the pane works on: named columns of raw cells. */
 export interface PaneData {
@@ -11,6 +13,8 @@ export interface PaneData {
   columns: RawCell[][];
   /** Labels of the rows (periods), when known. */
   rowLabels?: string[];
+  /** Every column of labels (text such as series names or dates), by name, when known. */
+  labelColumns?: { name: string; values: string[] }[];
   /** The range address (in Excel), for the formula the pane writes. */
   address?: string;
   /** 1 when the first row of the range was a header. */
@@ -45,7 +49,7 @@ export interface CheckRow {
 
 function fmt(x: number | null): string {
   if (x === null || !Number.isFinite(x)) return "–";
-  return Math.abs(x) >= 1000 ? Math.round(x).toLocaleString("en-GB") : String(Number(x.toPrecision(4)));
+  return Math.abs(x) >= 1000 ? formatWhole(x) : String(Number(x.toPrecision(4)));
 }
 
 /**
@@ -117,6 +121,10 @@ export interface FanControls {
   period: number;
   /** Levels in percent, as text ("50,80,95"). */
   levels: string;
+  /** "box-cox" (default), "yeo-johnson" or "none". */
+  transform?: string;
+  /** "" or "0" (none), "auto", or a number as text. */
+  shift?: string;
   /** "missing": zeros are missing observations (the "Treat zeros as missing" box). Default "keep". */
   zeros?: ZerosRule;
 }
@@ -127,8 +135,8 @@ export type FanView =
       ok: true;
       svg: string;
       fan: FanTable;
-      /** Readout: method, λ, σ, AICc. */
-      readout: { method: string; lambda: string; sigma: string; aicc: string };
+      /** Readout: method, λ, σ, AICc (original scale), and which mean is shown at the last step. */
+      readout: { method: string; lambda: string; sigma: string; aicc: string; mean: string };
       /** The mean-vs-median gap at the last step, in plain words. */
       gap: string;
       notes: string[];
@@ -141,7 +149,7 @@ export type FanView =
 function lambdaOption(text: string): string | number {
   const t = text.trim().toLowerCase();
   if (t === "" || t === "auto") return "auto";
-  if (t === "guerrero" || t === "mle" || t === "none") return t;
+  if (t === "guerrero" || t === "mle" || t === "model" || t === "none") return t;
   const v = Number(t);
   return Number.isFinite(v) ? v : text;
 }
@@ -155,6 +163,7 @@ export function gapSentence(fan: FanTable): string {
   const mean = last.mean.value;
   const median = last.median.value;
   if (mean === null || median === null || median === 0) return last.mean.note ?? "The mean is not available at the last step.";
+  if (last.meanDetail && last.meanDetail.accuracy) return last.meanDetail.accuracy;
   const d = mean - median;
   const pct = (100 * d) / median;
   if (Math.abs(pct) < 0.05) return `At step ${last.h} the mean and the median agree to within 0.05%: the transform barely bends this forecast.`;
@@ -174,7 +183,7 @@ export function fanView(data: PaneData, c: FanControls): FanView {
   try {
     const cells = data.columns[c.series];
     if (!cells) return { ok: false, message: "Choose a series." };
-    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows, zeros: c.zeros });
+    const f = fitForecast(cells, { method: c.method, lambda: lambdaOption(c.lambda), transform: c.transform || undefined, shift: c.shift || undefined, period: c.period, label: data.names[c.series], firstRow: 1 + data.headerRows, zeros: c.zeros });
     const fan = fanTable(f, c.horizon, { levels: c.levels });
     const history: number[] = [];
     const labels: string[] = [];
@@ -201,7 +210,8 @@ export function fanView(data: PaneData, c: FanControls): FanView {
         method: f.method,
         lambda: f.lambda === null ? "none" : `${f.lambda.toFixed(3)} (${f.lambdaSource})`,
         sigma: f.model ? f.model.sigma.toPrecision(3) : "0",
-        aicc: typeof aicc === "number" ? aicc.toFixed(1) : String(aicc ?? "–"),
+        aicc: typeof aicc === "number" ? `${aicc.toFixed(1)} (original scale)` : String(aicc ?? "–"),
+        mean: meanReadout(fan),
       },
       gap: gapSentence(fan),
       notes: f.notes.slice(),
@@ -214,60 +224,40 @@ export function fanView(data: PaneData, c: FanControls): FanView {
   }
 }
 
+/**
+ * Which mean the fan shows at its last step, and how far Taylor and exact differ there.
+ * @example meanReadout(fan) // "exact (Taylor would be 3.1% lower)"
+ */
+export function meanReadout(fan: FanTable): string {
+  const m = fan.rows[fan.rows.length - 1].meanDetail;
+  if (m.value === null) return "not available";
+  if (m.used === "exact") {
+    if (m.taylor === null || m.exact === null || m.exact === 0) return "exact";
+    const d = (100 * (m.taylor - m.exact)) / Math.abs(m.exact);
+    return Math.abs(d) < 0.05 ? "exact (Taylor agrees)" : `exact (Taylor would be ${Math.abs(d).toFixed(1)}% ${d < 0 ? "lower" : "higher"})`;
+  }
+  return `Taylor (correction ${m.correction === null ? "–" : (100 * m.correction).toFixed(1)}% of the median${m.poleProbability > 0 ? `; ${(100 * m.poleProbability).toPrecision(2)}% past the pole` : ""})`;
+}
+
 function quote(s: string): string {
   return `"${s.replace(/"/g, '""')}"`;
 }
 
 /**
  * The `=FW.FAN(...)` formula matching the controls, for a series at `address` (so the sheet
- * recalculates with the data). With zeros read as missing, the range is passed with its zeros
- * blanked (`IF(range=0,"",range)`): in cells a blank inside a series is a missing observation.
+ * recalculates with the data), in this build's namespace (FW deployed, FWDEV in development). With
+ * zeros read as missing, the range is passed with its zeros blanked (`IF(range=0,"",range)`): in
+ * cells a blank inside a series is a missing observation.
  * @example fanFormula("Sheet1!B2:B74", { series: 0, method: "auto", lambda: "auto", horizon: 12, period: 12, levels: "80,95" }) // '=FW.FAN(Sheet1!B2:B74,12,"auto","auto","80,95",12)'
  */
 export function fanFormula(address: string, c: FanControls): string {
   const l = lambdaOption(c.lambda);
   const values = c.zeros === "missing" ? `IF(${address}=0,"",${address})` : address;
-  return `=FW.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period})`;
+  const base = `=${FW_NAMESPACE}.FAN(${values},${c.horizon},${quote(c.method)},${typeof l === "number" ? String(l) : quote(l)},${quote(c.levels)},${c.period}`;
+  const t = c.transform && c.transform !== "box-cox" ? c.transform : "";
+  const sh = c.shift && c.shift !== "0" ? c.shift : "";
+  if (!t && !sh) return `${base})`;
+  const shiftArg = sh === "" ? "" : Number.isFinite(Number(sh)) ? sh : quote(sh);
+  return `${base},FALSE,${t ? quote(t) : ""},${shiftArg})`.replace(/,+\)$/, ")");
 }
 
-/** What the coverage-audit view shows. */
-export type AuditView =
-  | { ok: true; audit: CoverageAudit; strip: string; lines: [string, string][] }
-  | { ok: false; message: string };
-
-/**
- * A strip of hits and misses over time (one cell per row, misses in red-brown), so clustering is
- * visible at a glance. Self-contained SVG.
- * @example hitStripSvg([0, 1, 0], 300).includes("miss") // true
- */
-export function hitStripSvg(hits: readonly number[], width = 300): string {
-  const n = hits.length;
-  const w = Math.max(1, Math.min(12, Math.floor(width / Math.max(n, 1))));
-  const h = 18;
-  const cells = hits.map((v, i) => `<rect class="${v ? "miss" : "hit"}" x="${i * w}" y="0" width="${Math.max(w - (w > 3 ? 1 : 0), 1)}" height="${h}" fill="${v ? "#9c3d1f" : "#e9c27a"}"/>`).join("");
-  return `<svg xmlns="http://www.w3.org/2000/svg" width="${n * w}" height="${h}" viewBox="0 0 ${n * w} ${h}" role="img" aria-label="Hits and misses over time: ${hits.filter((v) => v).length} misses in ${n} rows"><title>Hits (ochre) and misses (red-brown), oldest first</title>${cells}</svg>`;
-}
-
-/**
- * Audits the chosen columns (actual, lower, upper) at a level, with the strip and the readout lines.
- * @example auditView(data, 5, 1, 2, 80).ok
- */
-export function auditView(data: PaneData, actual: number, lower: number, upper: number, level: number): AuditView {
-  try {
-    const a = auditCoverage(data.columns[actual] ?? [], data.columns[lower] ?? [], data.columns[upper] ?? [], level, 1 + data.headerRows);
-    const p = (x: number): string => (x < 0.001 ? x.toExponential(1) : x.toFixed(3));
-    const lines: [string, string][] = [
-      ["observed coverage", `${(100 * a.coverage).toFixed(1)}% of ${a.n} (nominal ${(100 * a.nominal).toFixed(0)}%)`],
-      ["misses", `${a.misses}${a.skipped ? ` (${a.skipped} rows skipped for blanks)` : ""}`],
-      ["Kupiec (miss rate)", `p = ${p(a.kupiec.p)}`],
-      ["independence (clustering)", `p = ${p(a.independence.p)}`],
-      ["conditional coverage", `p = ${p(a.conditional.p)}`],
-      ["zone", a.zone],
-      ["mean interval score", a.intervalScore.toPrecision(5)],
-    ];
-    return { ok: true, audit: a, strip: hitStripSvg(a.hits), lines };
-  } catch (e) {
-    if (isEngineError(e)) return { ok: false, message: e.message };
-    return { ok: false, message: `Fanwise could not audit this (${e instanceof Error ? e.message : String(e)}).` };
-  }
-}

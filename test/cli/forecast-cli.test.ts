@@ -4,7 +4,7 @@ import * as fs from "fs";
 import * as os from "os";
 import * as path from "path";
 import { runCli } from "../helpers/cli";
-import { check, datasetPath, expectClose } from "../helpers/reference";
+import { check, num, datasetPath, expectClose } from "../helpers/reference";
 
 describe("fanwise fan", () => {
   test("drift on log AirPassengers reproduces the numpy reference fan (bench.AirPassengers.log / backtransform.bench.*)", () => {
@@ -17,7 +17,8 @@ describe("fanwise fan", () => {
     s.steps.forEach((st: { h: number; mean: number; median: number; intervals: Record<string, [number, number]> }, i: number) => {
       expect(st.h).toBe(i + 1);
       expectClose(st.median, ref[i].median, { rtol: 1e-11 }, `median ${i + 1}`);
-      expectClose(st.mean, ref[i].mean_taylor, { rtol: 1e-11 }, `mean ${i + 1}`);
+      // the default mean is the exact one (issue 12 §1): scipy's quadrature value
+      expectClose(st.mean, num(ref[i].mean_exact_quad), { rtol: 1e-9 }, `mean ${i + 1}`);
       expectClose(st.intervals["95"][0], ref[i].quantiles["0.025"], { rtol: 1e-11 }, `low95 ${i + 1}`);
       expectClose(st.intervals["80"][1], ref[i].quantiles["0.9"], { rtol: 1e-11 }, `high80 ${i + 1}`);
     });
@@ -27,7 +28,7 @@ describe("fanwise fan", () => {
     expect(runCli(["demo", "--out", dir]).code).toBe(0);
     const csv = path.join(dir, "quillmere-monthly.csv");
     const r = runCli(["fan", csv, "--horizon", "12", "--period", "12"]);
-    expect(r.code).toBe(0);
+    expect(r.code).toBe(3); // two flagged series failed, the other six computed
     const lines = r.out.trim().split("\n");
     expect(lines[0]).toBe("series,h,period,method,lambda,mean,median,low80,high80,low95,high95,note");
     const bySeries = new Map<string, string[][]>();
@@ -64,7 +65,9 @@ describe("fanwise fan", () => {
     expect(runCli(["fan", datasetPath("nile")]).err).toMatch(/--horizon is required/);
     expect(runCli(["fan", datasetPath("nile"), "--horizon", "5", "--levels", "80,abc"]).err).toMatch(/"abc" is not a number/);
     const m = runCli(["fan", datasetPath("nile"), "--horizon", "5", "--method", "hw", "--json"]);
-    expect(JSON.parse(m.out).series.value.error).toMatch(/Unknown method "hw". Use one of/);
+    expect(m.code).toBe(1); // a misspelt method is a usage error, not a per-series note
+    expect(m.out).toBe("");
+    expect(m.err).toMatch(/--method must be one of mean, naive, .*; got "hw"/);
     expect(runCli(["fan", datasetPath("nile"), "--horizon", "0"]).code).toBe(1);
   });
 });

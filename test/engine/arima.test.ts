@@ -272,3 +272,10 @@ describe("ARIMA intervals in a rolling-origin backtest (seeded simulation; Tashm
     expect(() => armaSystem([1.2], [])).toThrow(/not stationary.*difference/);
   });
 });
+
+describe("ARIMA with a mistyped period", () => {
+  test("a seasonal period longer than the series is refused before anything is allocated", () => {
+    const y = Array.from({ length: 40 }, (_, i) => 10 + i * 0.1 + Math.sin(i));
+    expect(() => fitArima(y, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 1e9, constant: false })).toThrow(/needs at least .* values \(period 1000000000\)/);
+  });
+});

@@ -136,7 +136,8 @@ describe("a forecast known only by its median and interval (METHODS §4)", () =>
     const r = meanFromInterval(Math.exp(mu), Math.exp(mu - z * s), Math.exp(mu + z * s), 95);
     expectClose(r.mu, mu, { rtol: 1e-14 }, "mu");
     expectClose(r.sigma, s, { rtol: 1e-12 }, "sigma");
-    expectClose(r.mean, Math.exp(mu) * (1 + s * s / 2), { rtol: 1e-12 }, "taylor mean");
+    expectClose(r.mean, Math.exp(mu + s * s / 2), { rtol: 1e-12 }, "default (exact) mean");
+    expectClose(meanFromInterval(Math.exp(mu), Math.exp(mu - z * s), Math.exp(mu + z * s), 95, 0, "taylor").mean, Math.exp(mu) * (1 + s * s / 2), { rtol: 1e-12 }, "taylor mean");
     expect(r.consistent).toBe(true);
     expectClose(meanFromInterval(Math.exp(mu), Math.exp(mu - z * s), Math.exp(mu + z * s), 95, 0, "exact").mean, Math.exp(mu + s * s / 2), { rtol: 1e-12 }, "exact mean");
   });

@@ -75,14 +75,17 @@ describe("series in → fan table out (source: backtransform.* fixtures: statsmo
     test(`${c.id}: ${method}, λ = ${lambda}`, () => {
       const f = fitForecast(raw, { method, lambda, period });
       const H = c.expected.length;
-      const fan = fanTable(f, H, { levels: [80, 95] });
+      const fan = fanTable(f, H, { levels: [80, 95], mean: "taylor" });
       const exact = fanTable(f, H, { levels: [95], mean: "exact" });
+      const byDefault = fanTable(f, H, { levels: [95] });
       const probs = Object.keys(c.expected[0].quantiles).map(Number);
       const qs = quantileTable(f, H, probs);
       c.expected.forEach((e: Json, i: number) => {
         expectClose(fan.rows[i].median.value as number, e.median, { rtol }, `median ${i + 1}`);
         expectClose(fan.rows[i].mean.value as number, e.mean_taylor, { rtol }, `taylor mean ${i + 1}`);
         expectClose(exact.rows[i].mean.value as number, num(e.mean_exact_quad), { rtol: Math.max(rtol, 1e-9) }, `exact mean ${i + 1}`);
+        // the default (auto) mean is the exact one wherever it exists (λ ≥ 0; issue 12 §1)
+        if (lambda >= 0) expectClose(byDefault.rows[i].mean.value as number, num(e.mean_exact_quad), { rtol: Math.max(rtol, 1e-9) }, `default mean ${i + 1}`);
         expectClose(fan.rows[i].intervals["95"][0].value as number, e.quantiles["0.025"], { rtol }, `95% low ${i + 1}`);
         expectClose(fan.rows[i].intervals["95"][1].value as number, e.quantiles["0.975"], { rtol }, `95% high ${i + 1}`);
         expectClose(fan.rows[i].intervals["80"][0].value as number, e.quantiles["0.1"], { rtol }, `80% low ${i + 1}`);

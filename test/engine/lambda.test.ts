@@ -44,13 +44,17 @@ describe("Box-Cox maximum likelihood λ (source: scipy.stats.boxcox_normmax / bo
     }
   });
 
-  test("an estimate on a bound is reported as such", () => {
+  test("an estimate on a bound is never used silently: fitLambda widens the search and measures the interval from the true maximum (source: scipy.stats.boxcox_normmax / boxcox(alpha=0.05), unbounded)", () => {
     // Strongly right-skewed data want λ well below 0; bounds [0, 2] force the lower bound.
     const x = dataset("UKgas");
     const r = lambdaMle(x, { lower: 0, upper: 2 });
     expect(r.onBound).toBe("lower");
     const f = fitLambda(x, { method: "mle", lower: 0, upper: 2 });
-    expect(f.note).toMatch(/lower bound/);
+    expect(f.note).toMatch(/search was widened/);
+    const e = check("lambda.mle.UKgas").expected;
+    expectClose(f.lambda, e.lambda_boxcox_normmax, { atol: 1e-5 }, "λ at the true maximum");
+    expectClose(f.interval[0] as number, e.ci95[0], { atol: 1e-4 }, "ci low");
+    expectClose(f.interval[1] as number, e.ci95[1], { atol: 1e-4 }, "ci high");
   });
 });
 
@@ -81,6 +85,8 @@ describe("Guerrero's λ (source: statsmodels 0.13.5 BoxCox._est_lambda(method='g
     const f = fitLambda(x, { period: 12 });
     expect(f.method).toBe("guerrero");
     expect(f.window).toBe(12);
+    // Guerrero's λ has no likelihood, so no likelihood interval is shown beside it (issue 12 §2).
+    expect(f.interval).toEqual([null, null]);
     expectClose(f.lambda, g.lambda_tight, { atol: 1e-6 }, "lambda");
     expect(lambdaGuerrero([1, 2, 3, 5, 4, 6]).window).toBe(2);
   });

@@ -1,7 +1,8 @@
 // Series screening: the counts are checked by hand on small inputs; the λ it suggests is the
-// Guerrero estimate checked against statsmodels in lambda.test.ts.
+// λ lambda "auto" uses (models/lambda-choice.ts; checked in lambda-model.test.ts).
 import { cleanSeries, screenSeries } from "../../src/engine";
-import { check, dataset, expectClose } from "../helpers/reference";
+import { fitForecast } from "../../src/engine";
+import { dataset } from "../helpers/reference";
 
 describe("screenSeries counts what a user needs to know", () => {
   test("numbers, blanks (leading, trailing, interior), text, minimum and values ≤ 0", () => {
@@ -15,8 +16,17 @@ describe("screenSeries counts what a user needs to know", () => {
     expect(r.min).toBe(5);
     expect(r.nonPositive).toBe(0);
     expect(r.missing).toBe(1);
-    expect(r.fix).toBe("none");
+    // 4 observed values are too few for the λ rule lambda "auto" uses (the smoothing fit needs 5)
+    expect(r.fix).toBe("too-short");
+    expect(r.message).toMatch(/needs at least 5 observed values/);
     expect(r.message).toMatch(/1 blank inside the series \(at position 5\) is a missing observation/);
+  });
+  test("one blank inside a longer series is a missing observation, and λ is still suggested", () => {
+    const r = screenSeries([50, 62, null, 71, 80, 76, 90, 95, 88, 97, 104, 99], { label: "Shop" });
+    expect(r.missing).toBe(1);
+    expect(r.fix).toBe("none");
+    expect(r.suggestedLambda).not.toBeNull();
+    expect(r.message).toMatch(/1 blank inside the series \(at position 3\) is a missing observation/);
   });
   test("too many blanks inside the series (over 20%) ask to fill some", () => {
     const r = screenSeries([5, null, 6, null, 7, 8, 9, 10], { label: "Shop" });
@@ -28,14 +38,15 @@ describe("screenSeries counts what a user needs to know", () => {
     expect(r.boxCoxUsable).toBe(false);
     expect(r.zerosIsolated).toBe(false);
     expect(r.fix).toBe("shift");
-    expect(r.shift).toBe(120);
-    expect(r.message).toMatch(/Not Box-Cox ready: Old Quay has 2 zeros \(minimum 0, first at position 2\).*Shift it by c = 120/);
+    // shift "auto" = −min + half the smallest step above it (autoShift): 0 + 120/2
+    expect(r.shift).toBe(60);
+    expect(r.message).toMatch(/Not Box-Cox ready: Old Quay has 2 zeros \(minimum 0, first at position 2\).*shift "auto", which adds 60/);
   });
   test("an isolated zero month (a closed month) suggests reading zeros as missing, naming the face's option", () => {
     const r = screenSeries([120, 0, 130, 140, 150, 160], { label: "Old Quay" });
     expect(r.zerosIsolated).toBe(true);
     expect(r.fix).toBe("zeros-missing");
-    expect(r.message).toMatch(/If that period was closed, read zeros as missing observations: leave those cells blank \(cells\), add --zeros missing \(command line\), or tick "Treat zeros as missing" \(pane\)\. Otherwise shift it by c = 120/);
+    expect(r.message).toMatch(/If that period was closed, read zeros as missing observations: leave those cells blank \(cells\), add --zeros missing \(command line\), or tick "Treat zeros as missing" \(pane\)\. Otherwise use shift "auto", which adds 60/);
     const cli = screenSeries([120, 0, 130, 140, 150, 160], { label: "Old Quay", zerosOption: "add --zeros missing" });
     expect(cli.message).toMatch(/read zeros as missing observations: add --zeros missing\./);
   });
@@ -49,8 +60,8 @@ describe("screenSeries counts what a user needs to know", () => {
   test("a negative month suggests Yeo-Johnson (or a shift past the minimum)", () => {
     const r = screenSeries([120, -30, 130, 140, 150, 160], { label: "Parts" });
     expect(r.fix).toBe("yeo-johnson");
-    expect(r.shift).toBe(150);
-    expect(r.message).toMatch(/1 negative value.*Yeo-Johnson/);
+    expect(r.shift).toBe(105); // 30 + (120 − (−30))/2
+    expect(r.message).toMatch(/1 negative value.*transform "yeo-johnson"/);
   });
   test("too short to choose λ", () => {
     const r = screenSeries([3, 4, 5]);
@@ -65,15 +76,21 @@ describe("screenSeries counts what a user needs to know", () => {
     expect(r.fix).toBe("constant");
     expect(r.suggestedLambda).toBe(1);
   });
-  test("the suggested λ is Guerrero's (window = period), rounded within the likelihood interval (source: statsmodels 0.13.5 via lambda.guerrero.AirPassengers)", () => {
-    const r = screenSeries(dataset("AirPassengers"), { period: 12 });
-    expectClose(r.lambda?.lambda as number, check("lambda.guerrero.AirPassengers").expected.window12_sd.lambda_tight, { atol: 1e-6 }, "lambda");
+  test("the suggested λ is exactly the λ a forecast with lambda \"auto\" uses, inside the interval shown (issue 12 §2; AirPassengers, R datasets)", () => {
+    const y = dataset("AirPassengers");
+    const r = screenSeries(y, { period: 12 });
+    expect(r.suggestedLambda).toBe(fitForecast(y, { period: 12 }).lambda);
     expect(r.suggestedLambda).toBe(0);
+    const [lo, hi] = r.lambda?.interval as [number, number];
+    expect(lo).toBeLessThanOrEqual(0);
+    expect(hi).toBeGreaterThanOrEqual(0);
     expect(r.boxCoxUsable).toBe(true);
   });
-  test("a series too short for Guerrero's windows falls back to maximum likelihood", () => {
-    const r = screenSeries([10, 12, 15, 11, 13, 18, 20, 16], { period: 12 });
-    expect(r.lambda?.method).toBe("mle");
+  test("zeros: the advice names the argument that works (shift \"auto\", transform \"yeo-johnson\")", () => {
+    const r = screenSeries([3, 0, 5, 6, 4, 7]);
+    expect(r.message).toMatch(/shift "auto", which adds 1\.5 \(command line: --shift auto\)/);
+    expect(r.message).toMatch(/transform "yeo-johnson"/);
+    expect(r.shift).toBe(1.5);
   });
   test("refuses a period that is not a whole number ≥ 1", () => {
     expect(() => screenSeries([1, 2, 3, 4], { period: 0 })).toThrow(/period/);

@@ -155,7 +155,7 @@ describe("bad input says what to fix", () => {
     err(() => publishedTotal([100, 100], [80, 105], [120, 130], 80), /Month 2: Need lower < median < upper/);
   });
   test("a level given as 0.8", () => {
-    err(() => publishedTotal([100], [80], [120], 0.8), /in percent: give 95/);
+    err(() => publishedTotal([100], [80], [120], 0.8), /in percent: give 80 for an 80% interval, not 0\.8/);
   });
   test("months of different counts", () => {
     err(() => publishedTotal([100, 100], [80], [120, 125], 80), /one value per month; got 2 medians, 1 lowers and 2 uppers/);

@@ -1,5 +1,7 @@
 // FW.COVERAGE / FW.INTERVALSCORE / FW.PINBALL / FW.BACKTEST as Excel calls them, against the
 // scipy coverage fixtures and the engine.
+import * as fs from "fs";
+import * as path from "path";
 import { isCellError, ShimError } from "../helpers/custom-functions-shim";
 import * as FW from "../../src/functions/functions";
 import { buildDemoWorkbook } from "../../src/demo/quillmere";
@@ -25,6 +27,8 @@ describe("FW.COVERAGE", () => {
     const log = buildDemoWorkbook().forecastLog;
     const out = FW.COVERAGE(col(log.map((r) => r.actual)), col(log.map((r) => r.lower80)), col(log.map((r) => r.upper80)), 80);
     expect(out[0].slice(0, 2)).toEqual([36, 9]);
+    expect(out[0]).toHaveLength(10);
+    expect(out[0][9]).toMatch(/^(Too many misses|Misses cluster|Intervals too wide \(too few misses\)|Consistent with the promised coverage)$/);
   });
   test("bad input: unequal lengths, low > high naming the row, a level outside (0, 100), fewer than 2 rows", () => {
     const err = (f: () => unknown): ShimError => { try { f(); } catch (e) { return e as ShimError; } throw new Error("no error"); };
@@ -40,7 +44,8 @@ describe("FW.INTERVALSCORE and FW.PINBALL (source: coverage.interval_score fixtu
   test("mean interval score of the fixture's 95% rows", () => {
     const mean = e.reduce((s: number, x: { interval_score: number }) => s + x.interval_score, 0) / e.length;
     const v = FW.INTERVALSCORE(col(e.map((x: { actual: number }) => x.actual)), col(e.map((x: { lower: number }) => x.lower)), col(e.map((x: { upper: number }) => x.upper)), 95);
-    expectClose(v, mean, { rtol: 1e-14 }, "mean IS");
+    expect(v).toHaveLength(1);
+    expectClose(v[0][0] as number, mean, { rtol: 1e-14 }, "mean IS");
   });
   test("mean pinball loss at p = 0.975 of the upper ends", () => {
     const mean = e.reduce((s: number, x: { pinball_upper: number }) => s + x.pinball_upper, 0) / e.length;
@@ -59,11 +64,59 @@ describe("FW.BACKTEST", () => {
       expect(row[1]).toBe(b.rows[i].origins);
       expect(row[2]).toBe(b.rows[i].coverage);
       expect(row[4]).toBe(b.rows[i].meanErrorOfMean);
+      expect(row[6]).toBe(b.rows[i].kupiecP);
+      expect(row[7]).toBe(b.rows[i].verdict?.headline);
     });
   });
   test("a first origin that leaves no room for the horizon is refused with the numbers", async () => {
     let e: unknown = null;
     try { await FW.BACKTEST(col([1, 2, 3, 4, 5, 6, 7, 8]), 5, "naive", 0, 80, null as unknown as number, 6); } catch (x) { e = x; }
     expect(isCellError(e, "#VALUE!", /no room for 5 steps/)).toBe(true);
+  });
+});
+
+describe("FW.COVERAGE and FW.INTERVALSCORE by group, step and level (scipy 1.10.1 values: test/fixtures/audit-log)", () => {
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  const FIX: any = JSON.parse(fs.readFileSync(path.join(__dirname, "..", "fixtures", "audit-log", "audit_log.json"), "utf8"));
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  const rows: any[] = FIX.groups.rows;
+  const pair = (level: number, side: string) => rows.map((r) => [r[`${side}${level}`]]);
+  const both = (side: string) => rows.map((r) => [r[`${side}80`], r[`${side}95`]]);
+  test("two levels and three shops: one row per shop and level plus the pooled rows, keyed by group and level", () => {
+    const out = FW.COVERAGE(col(rows.map((r) => r.actual)), both("lower"), both("upper"), "80,95", col(rows.map((r) => r.series)));
+    expect(out).toHaveLength(FIX.groups.expected.length);
+    out.forEach((row, i) => {
+      const e = FIX.groups.expected[i];
+      expect(row.slice(0, 4)).toEqual([e.group, e.level, e.n, e.misses]);
+      expectClose(row[5] as number, e.p_uc, { rtol: 1e-10 }, "Kupiec p");
+      expectClose(row[6] as number, e.p_ind, { rtol: 1e-10 }, "independence p");
+      expectClose(row[7] as number, e.p_cc, { rtol: 1e-10 }, "conditional p");
+      expectClose(row[9] as number, e.interval_score, { rtol: 1e-10 }, "interval score");
+      if (row[11] !== "Consistent with the promised coverage") expect(row[10]).not.toBe("green");
+    });
+    expect(out[1][11]).toBe("Too many misses");
+    expect(out[2][11]).toBe("Intervals too wide (too few misses)");
+    const is = FW.INTERVALSCORE(col(rows.map((r) => r.actual)), pair(80, "lower"), pair(80, "upper"), 80, col(rows.map((r) => r.series)));
+    expect(is.map((r) => r[0])).toEqual(["Harbour Street", "Mill Lane", "Old Quay", "all groups"]);
+    expectClose(is[3][1] as number, FIX.groups.expected[3].interval_score, { rtol: 1e-10 }, "pooled score");
+  });
+  test("by step: the horizons argument gives rows keyed by group and step", () => {
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any
+    const hr: any[] = FIX.horizons.rows;
+    const out = FW.COVERAGE(col(hr.map((r) => r.actual)), col(hr.map((r) => r.lower80)), col(hr.map((r) => r.upper80)), 80, col(hr.map((r) => r.series)), col(hr.map((r) => r.h)));
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any
+    const e80 = FIX.horizons.expected.filter((e: any) => e.level === 80);
+    expect(out.map((r) => r.slice(0, 3))).toEqual(e80.map((e: { group: string; h: number; n: number }) => [e.group, e.h, e.n]));
+    out.forEach((r, i) => expectClose(r[6] as number, e80[i].p_ind, { rtol: 1e-10 }, "adjusted independence p"));
+  });
+  test("bad input through the cells: a blank group, a fractional horizon, too few level columns, 95/80 swapped", () => {
+    const err = (f: () => unknown): ShimError => { try { f(); } catch (e) { return e as ShimError; } throw new Error("no error"); };
+    const y = col([100, 104, 98, 110]), lo = col([95, 95, 95, 95]), hi = col([105, 105, 105, 105]);
+    expect(isCellError(err(() => FW.COVERAGE(y, lo, hi, 80, col(["A", null, "B", "B"]))), "#VALUE!", /Row 2: the group \(series name\) is blank/)).toBe(true);
+    expect(isCellError(err(() => FW.COVERAGE(y, lo, hi, 80, null as unknown as unknown[][], col([1, 2, 2.5, 3]))), "#VALUE!", /Row 3: the horizon 2.5 is not a whole number/)).toBe(true);
+    expect(isCellError(err(() => FW.COVERAGE(y, lo, hi, "80,95")), "#VALUE!", /lower needs one column per level: 2 levels were given/)).toBe(true);
+    const lo2 = [[95, 90], [95, 90], [95, 90], [95, 90]], hi2 = [[105, 110], [105, 110], [105, 110], [105, 110]];
+    expect(isCellError(err(() => FW.COVERAGE(y, lo2, hi2, [[95, 80]])), "#VALUE!", /the 95% interval \(95 to 105\) does not contain the 80% interval/)).toBe(true);
+    expect(FW.COVERAGE(y, lo2, hi2, [[80, 95]]).map((r) => r[0])).toEqual([80, 95]);
   });
 });

@@ -30,7 +30,8 @@ describe("FW.FAN", () => {
     expect(out[0]).toHaveLength(1 + 2 + 4);
     out.forEach((row, i) => {
       expect(row[0]).toBe(i + 1);
-      expectClose(row[1], ref[i].mean_taylor, { rtol: 1e-11 }, "mean");
+      // the default mean is exact wherever it exists (issue 12 §1): scipy's quadrature value
+      expectClose(row[1], ref[i].mean_exact_quad, { rtol: 1e-9 }, "mean");
       expectClose(row[2], ref[i].median, { rtol: 1e-11 }, "median");
       expectClose(row[3], ref[i].quantiles["0.1"], { rtol: 1e-11 }, "low 80");
       expectClose(row[6], ref[i].quantiles["0.975"], { rtol: 1e-11 }, "high 95");
@@ -113,7 +114,25 @@ describe("FW.MODELINFO", () => {
     expect(map.get("n")).toBe(144);
     expect(typeof map.get("AICc")).toBe("number");
     // ses on log AirPassengers: statsmodels 0.13.5 llf 118.538 (ets.AirPassengers.log.ANN)
-    expectClose(map.get("loglik") as number, check("ets.AirPassengers.log.ANN").expected.llf, { atol: 1e-6 }, "loglik");
+    expectClose(map.get("loglik (transformed scale)") as number, check("ets.AirPassengers.log.ANN").expected.llf, { atol: 1e-6 }, "loglik");
+    // on the original scale the Jacobian (λ − 1)·Σ ln y is added (Box & Cox 1964; METHODS §7)
+    const jac = -air.reduce((a, v) => a + Math.log(v), 0);
+    expectClose(map.get("loglik") as number, check("ets.AirPassengers.log.ANN").expected.llf + jac, { atol: 1e-6 }, "loglik (original scale)");
+    expect(map.get("mean shown")).toBe("exact");
+  });
+  test("transform, shift and mean arguments (issue 11 §5, issue 12 §1)", async () => {
+    const withZero = [["Shop"], [120], [0], [130], [140], [150], [160], [155], [170]];
+    expect(isCellError((await FW.FAN(withZero, 2, "naive", 0, N, N, N))[0][1], "#VALUE!", /shift "auto"/)).toBe(true);
+    const shifted = await FW.FAN(withZero, 2, "naive", 0, N, N, N, N, "auto", N);
+    const moved = await FW.FAN(withZero.map((r, i) => (i === 0 ? r : [(r[0] as number) + 60])), 2, "naive", 0, N, N, N);
+    expectClose(shifted[0][2] as number, (moved[0][2] as number) - 60, { rtol: 1e-12 }, "median, shift auto = 60");
+    const yj = await FW.FAN(withZero, 2, "naive", 0.5, N, N, N, "yeo-johnson", N, N);
+    expect(typeof yj[0][1]).toBe("number");
+    const taylor = await FW.FAN(airRange, 12, "naive", 0, N, N, N, N, N, "taylor");
+    const exact = await FW.FAN(airRange, 12, "naive", 0, N, N, N, N, N, N);
+    expect(exact[11][1] as number).toBeGreaterThan(taylor[11][1] as number); // e^(σ²/2) > 1 + σ²/2
+    // a window after the horizon is refused, naming from (the window itself: test/functions totals tests)
+    expect(isCellError(await rejected(FW.TOTAL(airRange, 12, "naive", 0, N, N, N, 13 as never)), "#VALUE!", /from \(13\) is after horizon/)).toBe(true);
   });
 });
 

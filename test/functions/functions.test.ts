@@ -31,9 +31,9 @@ describe("FW.BOXCOX / FW.BOXCOXINV", () => {
     expect(isCellError(out[1][0], "#VALUE!", /values > 0/)).toBe(true);
     expect(isCellError(out[2][0], "#VALUE!", /not a number/)).toBe(true);
   });
-  test("the inverse past the floor is #NUM!, never NaN", () => {
+  test("the inverse past the floor is #N/A with the reason (a message Excel shows), never NaN", () => {
     const out = FW.BOXCOXINV([[-3]], 0.5, null as unknown as number);
-    expect(isCellError(out[0][0], "#NUM!", /floor/)).toBe(true);
+    expect(isCellError(out[0][0], "#N/A", /floor/)).toBe(true);
   });
   test("λ as text is refused for the whole call", () => {
     expect(isCellError(thrown(() => FW.BOXCOX([[1]], "auto" as unknown as number)), "#VALUE!", /lambda must be a number/)).toBe(true);
@@ -58,6 +58,17 @@ describe("FW.FITLAMBDA", () => {
     expect(row[3]).toBe(0);
     const [g] = FW.FITLAMBDA(range, "GUERRERO", 12, null as unknown as number, null as unknown as number);
     expectClose(g[0] as number, check("lambda.guerrero.AirPassengers").expected.window12_sd.lambda_tight, { atol: 1e-6 }, "guerrero");
+    // Guerrero has no likelihood: no interval belongs to its λ (issue 12 §2)
+    expect(isCellError(g[1], "#N/A", /no likelihood/)).toBe(true);
+  });
+  test("the default (auto) λ is exactly the λ FW.FAN with lambda \"auto\" uses, inside its interval (issue 12 §2)", async () => {
+    const air = dataset("AirPassengers");
+    const range = [["Air"], ...air.map((v) => [v])];
+    const [row] = FW.FITLAMBDA(range, null as unknown as string, 12, null as unknown as number, null as unknown as number);
+    const info = new Map((await FW.MODELINFO(range, null as unknown as string, null, 12)).map((r) => [r[0], r[1]]));
+    expect(row[0]).toBe(info.get("lambda"));
+    expect(row[1] as number).toBeLessThanOrEqual(row[0] as number);
+    expect(row[2] as number).toBeGreaterThanOrEqual(row[0] as number);
   });
   test("a series with a zero gets its message in its own row; the others still compute", () => {
     const out = FW.FITLAMBDA([["A", "B"], [1, 0], [2, 3], [4, 5], [3, 6], [5, 7], [6, 9]], "mle", null as unknown as number, null as unknown as number, null as unknown as number);
@@ -65,7 +76,7 @@ describe("FW.FITLAMBDA", () => {
     expect(isCellError(out[1][0], "#VALUE!", /B has 1 zero/)).toBe(true);
   });
   test("a misspelt method lists the valid ones", () => {
-    expect(isCellError(thrown(() => FW.FITLAMBDA([[1], [2], [3], [4]], "gurero")), "#VALUE!", /"guerrero", "mle"/)).toBe(true);
+    expect(isCellError(thrown(() => FW.FITLAMBDA([[1], [2], [3], [4]], "gurero")), "#VALUE!", /"auto", "model", "guerrero", "mle"/)).toBe(true);
   });
   test("a range with only a header is refused", () => {
     expect(isCellError(thrown(() => FW.FITLAMBDA([["Shop"]], null as unknown as string)), "#VALUE!", /only a header/)).toBe(true);
@@ -85,9 +96,11 @@ describe("FW.SCREEN", () => {
 
 describe("FW.BTMEAN / FW.BTQUANTILE (source: scipy 1.10.1 backtransform.grid)", () => {
   const e = check("backtransform.grid").expected.find((x: { lmbda: number; mu: number; sigma: number }) => x.lmbda === 0 && x.mu === 2 && x.sigma === 1);
-  test("Taylor by default, exact on request", () => {
-    expectClose(FW.BTMEAN([[2]], [[1]], 0, null as unknown as string)[0][0] as number, e.mean_taylor, { rtol: 1e-12 }, "taylor");
+  test("exact by default where it exists (λ ≥ 0; issue 12 §1), Taylor on request, Taylor by default for λ < 0", () => {
+    expectClose(FW.BTMEAN([[2]], [[1]], 0, null as unknown as string)[0][0] as number, e.mean_exact_quad, { rtol: 1e-9 }, "default (auto)");
+    expectClose(FW.BTMEAN([[2]], [[1]], 0, "taylor")[0][0] as number, e.mean_taylor, { rtol: 1e-12 }, "taylor");
     expectClose(FW.BTMEAN([[2]], [[1]], 0, "exact")[0][0] as number, e.mean_exact_quad, { rtol: 1e-9 }, "exact");
+    expect(FW.BTMEAN([[1]], [[0.1]], -0.3, null as unknown as string)[0][0]).toBeCloseTo(FW.BTMEAN([[1]], [[0.1]], -0.3, "taylor")[0][0] as number, 12);
   });
   test("the exact mean for λ < 0 is #N/A with the reason", () => {
     expect(isCellError(FW.BTMEAN([[1]], [[0.1]], -0.3, "exact")[0][0], "#N/A", /does not exist/)).toBe(true);

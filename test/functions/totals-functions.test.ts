@@ -44,7 +44,7 @@ describe("FW.TOTALFROMINTERVALS", () => {
   });
   test("bad input says what to fix", async () => {
     expect((await failure(() => FW.TOTALFROMINTERVALS(col([100, 100]), col([80, 110]), col([120, 130]), 80))).message).toMatch(/Month 2: Need lower < median < upper/);
-    expect((await failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 0.8))).message).toMatch(/in percent: give 95/);
+    expect((await failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 0.8))).message).toMatch(/in percent: give 80 for an 80% interval, not 0\.8/);
     expect((await failure(() => FW.TOTALFROMINTERVALS(col([100, 100]), col([80]), col([120, 125]), 80))).message).toMatch(/one value per month/);
     expect((await failure(() => FW.TOTALFROMINTERVALS(col([100, 100]), col([0, 80]), col([120, 125]), 80))).message).toMatch(/Month 1: The interval's lower end must be > 0/);
     expect((await failure(() => FW.TOTALFROMINTERVALS(col([100, 100]), col([80, null]), col([120, 125]), 80))).message).toMatch(/lowers is blank in month 2/);

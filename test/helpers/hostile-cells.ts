@@ -154,6 +154,10 @@ function checkCell(v: unknown, where: string, echo: string[]): void {
 function checkError(e: ShimError, where: string, echo: string[]): void {
   if (!CODES.has(e.code)) throw new Error(`${where}: unexpected error code ${e.code}`);
   if (typeof e.message !== "string" || e.message.trim() === "") throw new Error(`${where}: ${e.code} without a message`);
+  // Excel shows the message only with #VALUE! and #N/A ("Handle and return errors from your custom
+  // function"); a Fanwise #NUM! is bare in Excel, so it may only mean the one documented cause, an
+  // overflow (README, How Fanwise reads cells; src/functions/excel-errors.ts).
+  if (e.code === "#NUM!" && !/too large to represent|\boverflows on\b|not a finite number/.test(e.message)) throw new Error(`${where}: #NUM! (shown without its message) for something other than an overflow: ${e.message}`);
   // The user's own text echoed back (a header named "NaN", got the text "undefined") is not a leak.
   let own = e.message.replace(/"[^"]*"/g, '""');
   for (const t of echo) if (t.trim()) own = own.split(t.trim()).join("");

@@ -58,7 +58,7 @@ describe.each(truth.cases)("$file ($source)", (c) => {
   }
   if (c.forcedComma) {
     test(`read with the wrong delimiter (comma), the message names the ${c.forcedComma}`, () => {
-      expect(() => readTable(readCsvFile(file, ",")).column(0)).toThrow(new RegExp(`${c.forcedComma}.*--delimiter ;`));
+      expect(() => readTable(readCsvFile(file, { delimiter: "," })).column(0)).toThrow(new RegExp(`${c.forcedComma}.*--delimiter ;`));
     });
   }
 });

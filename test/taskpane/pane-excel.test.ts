@@ -42,21 +42,64 @@ const FAKE_OFFICE = `(() => {
     Object.defineProperty(r, "values", { get() { window.valuesRead.push(spec.address); return g.values; } });
     Object.defineProperty(r, "valueTypes", { get() { return g.types; } });
     Object.defineProperty(r, "numberFormat", { get() { return spec.formats; } });
+    // A piece of whole rows (large selections are read in pieces): getCell(i, 0).getResizedRange(rows - 1, cols - 1).
+    r.getCell = (i) => ({
+      getResizedRange: (dr, dc) => rangeOf({ address: spec.address + "#rows" + i + "-" + (i + dr), values: g.values.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)), types: g.types.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)), formats: spec.formats ? spec.formats.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)) : undefined }),
+    });
     return r;
   };
   window.loads = [];
   window.valuesRead = [];
   const handlers = [];
-  window.fireSelectionChanged = () => handlers.forEach((h) => h({}));
+  window.fireSelectionChanged = () => handlers.slice().forEach((h) => h({}));
+  window.selectionHandlers = () => handlers.length;
   const ctx = {
     workbook: {
       getSelectedRange: () => rangeOf(window.fakeSelection),
-      onSelectionChanged: { add: (h) => handlers.push(h) },
+      onSelectionChanged: {
+        add: (h) => {
+          handlers.push(h);
+          return { context: ctx, remove: () => { const i = handlers.indexOf(h); if (i >= 0) handlers.splice(i, 1); } };
+        },
+      },
+      // The active sheet for "Write to sheet": window.sheetCells maps A1 addresses to what they hold;
+      // writes are recorded in window.sheetWrites, batches in window.syncs.
+      worksheets: {
+        getActiveWorksheet: () => ({
+          getRange: (address) => {
+            const r = {
+              load() { return r; },
+              get formulas() {
+                const [a, b] = address.split(":");
+                const p = (x) => { const m = /^([A-Z]+)(\\d+)$/.exec(x); return [Number(m[2]) - 1, m[1].split("").reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0) - 1]; };
+                const [r0, c0] = p(a); const [r1, c1] = p(b || a);
+                const name = (i, j) => { let s = ""; for (let k = j + 1; k > 0; k = Math.floor((k - 1) / 26)) s = String.fromCharCode(65 + ((k - 1) % 26)) + s; return s + (i + 1); };
+                return Array.from({ length: r1 - r0 + 1 }, (_, i) => Array.from({ length: c1 - c0 + 1 }, (_, j) => (window.sheetCells || {})[name(r0 + i, c0 + j)] ?? ""));
+              },
+              set formulas(v) { window.sheetWrites.push(["formulas", address, v]); },
+              clear(what) { window.sheetWrites.push(["clear", address, what]); },
+            };
+            return r;
+          },
+        }),
+      },
     },
-    sync: async () => {},
+    sync: async () => { window.syncs = (window.syncs || 0) + 1; },
   };
-  window.Excel = { run: async (cb) => cb(ctx) };
+  window.sheetWrites = [];
+  // Excel.run(callback) or Excel.run(context, callback), as the API allows.
+  window.Excel = { run: async (a, b) => (typeof a === "function" ? a(ctx) : b(ctx)), ClearApplyTo: { contents: "Contents" } };
+  // SharedRuntime 1.1: the pane's visibility changes are announced with window.fireVisibility(mode).
+  const visibilityHandlers = [];
+  window.fireVisibility = (mode) => visibilityHandlers.forEach((h) => h({ visibilityMode: mode }));
   window.Office = {
+    VisibilityMode: { hidden: "Hidden", taskpane: "Taskpane" },
+    addin: {
+      onVisibilityModeChanged: async (h) => {
+        visibilityHandlers.push(h);
+        return async () => { visibilityHandlers.splice(visibilityHandlers.indexOf(h), 1); };
+      },
+    },
     HostType: { Excel: "Excel" },
     context: { requirements: { isSetSupported: (name, v) => name === "ExcelApi" && Number(v) <= 1.7 } },
     onReady(cb) {
@@ -84,10 +127,12 @@ const pane = (page: Page): Promise<Pane> => page.evaluate(() => {
   return { renders: p.renders, checking: p.checking, checkSlices: p.checkSlices };
 });
 
-async function openWith(selection: unknown): Promise<{ page: Page; errors: string[] }> {
+async function openWith(selection: unknown, options: { startHidden?: boolean } = {}): Promise<{ page: Page; errors: string[] }> {
   const page = await env.context.newPage();
   const errors: string[] = [];
   page.on("pageerror", (e) => errors.push(e.message));
+  // A runtime started by a calculation, before anyone opened the pane: the page is hidden.
+  if (options.startHidden) await page.addInitScript(() => Object.defineProperty(document, "visibilityState", { configurable: true, get: () => "hidden" }));
   await page.addInitScript((sel) => {
     (window as unknown as { fakeSelection: unknown }).fakeSelection = sel;
     // Count animation frames painted while the series check is still running: frames can only be
@@ -185,6 +230,101 @@ test("a date column (cells with a date format) labels the rows: period 12, the a
   expect(await page.inputValue("#fw-period")).toBe("12");
   expect(await page.innerHTML("#fw-chart")).toContain("1961-");
   expect(await page.textContent("#fw-formula")).toMatch(/^=FW\.FAN\(Sheet1!B1:B37,/);
+  expect(errors).toEqual([]);
+  expect(env.offSite).toEqual([]);
+  await page.close();
+});
+
+describe("quiet when not looked at: the selection is followed only while the pane is visible (SharedRuntime visibility events)", () => {
+  type W = { valuesRead: string[]; fakeSelection: unknown; fireSelectionChanged: () => void; fireVisibility: (m: string) => void; selectionHandlers: () => number; fanwisePane: { following: { visible: boolean; listening: boolean; refreshes: number } | null } };
+  const following = (page: Page) => page.evaluate(() => (window as unknown as W).fanwisePane.following);
+  const reads = (page: Page) => page.evaluate(() => (window as unknown as W).valuesRead.length);
+  const handlers = (page: Page) => page.evaluate(() => (window as unknown as W).selectionHandlers());
+  const settle = (page: Page) => page.waitForTimeout(700); // longer than the 300 ms debounce
+
+  test("started hidden (by a calculation): no handler and no read until the pane is shown; hiding removes the handler again", async () => {
+    const { page, errors } = await openWith({ address: "Sheet1!A1:C61", grid: [60, 3] }, { startHidden: true });
+    await page.waitForFunction(() => (window as unknown as W).fanwisePane?.following !== null && (window as unknown as W).fanwisePane?.following !== undefined);
+    await settle(page);
+    expect(await following(page)).toEqual({ visible: false, listening: false, refreshes: 0 });
+    expect(await handlers(page)).toBe(0);
+    // selection changes while hidden: nothing is read (no handler is even registered)
+    await page.evaluate(() => (window as unknown as W).fireSelectionChanged());
+    await settle(page);
+    expect(await reads(page)).toBe(0);
+
+    // the user opens the pane: the selection is read once and followed from then on
+    await page.evaluate(() => (window as unknown as W).fireVisibility("Taskpane"));
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!A1:C61");
+    expect(await reads(page)).toBe(1);
+    expect(await handlers(page)).toBe(1);
+    await page.evaluate(() => {
+      const w = window as unknown as W;
+      w.fakeSelection = { address: "Sheet1!B1:B61", grid: [60, 1] };
+      w.fireSelectionChanged();
+    });
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!B1:B61");
+    expect(await reads(page)).toBe(2);
+
+    // the user closes it: the handler goes, and selection changes cost nothing
+    await page.evaluate(() => (window as unknown as W).fireVisibility("Hidden"));
+    await page.waitForFunction(() => !(window as unknown as W).fanwisePane.following?.listening);
+    expect(await handlers(page)).toBe(0);
+    await page.evaluate(() => {
+      const w = window as unknown as W;
+      w.fakeSelection = { address: "Sheet1!C1:C61", grid: [60, 1] };
+      w.fireSelectionChanged();
+    });
+    await settle(page);
+    expect(await reads(page)).toBe(2);
+    expect(await page.textContent("#fw-source")).toBe("Selection Sheet1!B1:B61");
+
+    // shown again: it catches up with the selection made while hidden
+    await page.evaluate(() => (window as unknown as W).fireVisibility("Taskpane"));
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!C1:C61");
+    expect(await handlers(page)).toBe(1);
+    expect(errors).toEqual([]);
+    expect(env.offSite).toEqual([]);
+    await page.close();
+  });
+
+  test("a selection change that arrives just before the pane is hidden is dropped, not computed while hidden", async () => {
+    const { page, errors } = await openWith({ address: "Sheet1!A1:B41", grid: [40, 2] });
+    await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!A1:B41");
+    expect(await following(page)).toMatchObject({ visible: true, listening: true });
+    const before = await reads(page);
+    await page.evaluate(() => {
+      const w = window as unknown as W;
+      w.fakeSelection = { address: "Sheet1!A1:A41", grid: [40, 1] };
+      w.fireSelectionChanged(); // debounced for 300 ms…
+      w.fireVisibility("Hidden"); // …and the pane closes within it
+    });
+    await settle(page);
+    expect(await reads(page)).toBe(before);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
+
+test("Write to sheet with a value in the fan's way: says what and where, writes nothing; Overwrite then writes", async () => {
+  const { page, errors } = await openWith({ address: "Sheet1!A1:A61", grid: [60, 1] });
+  await page.evaluate(() => { (window as unknown as { sheetCells: Record<string, unknown> }).sheetCells = { K5: 1200 }; });
+  await page.waitForFunction(() => document.getElementById("fw-source")?.textContent === "Selection Sheet1!A1:A61");
+  await page.fill("#fw-target", "J2");
+  await page.click("#fw-write-go");
+  await page.waitForFunction(() => /Nothing written yet/.test(document.getElementById("fw-write-msg")?.textContent ?? ""));
+  expect(await page.textContent("#fw-write-msg")).toBe('Nothing written yet: K5 (in the fan\'s spill area) holds 1200. Writing would overwrite it: choose another cell, or press "Overwrite" to replace it.');
+  type Writes = { sheetWrites: unknown[] };
+  expect(await page.evaluate(() => (window as unknown as Writes).sheetWrites)).toEqual([]);
+  expect(await page.isVisible("#fw-write-overwrite")).toBe(true);
+  await page.click("#fw-write-overwrite");
+  await page.waitForFunction(() => /Formula written/.test(document.getElementById("fw-write-msg")?.textContent ?? ""));
+  const writes = await page.evaluate(() => (window as unknown as Writes).sheetWrites) as [string, string, unknown][];
+  expect(writes[0]).toEqual(["clear", "J2:R13", "Contents"]); // the pane's default levels 50, 80, 95: 3 + 2×3 = 9 columns
+  expect(writes[1][0]).toBe("formulas");
+  expect(writes[1][1]).toBe("J2");
+  expect(String((writes[1][2] as string[][])[0][0])).toMatch(/^=FW\.FAN\(Sheet1!A1:A61,12,/);
+  expect(await page.isVisible("#fw-write-overwrite")).toBe(false);
   expect(errors).toEqual([]);
   expect(env.offSite).toEqual([]);
   await page.close();

@@ -62,8 +62,9 @@ async function renders(): Promise<number> {
 async function lastFan(): Promise<Json> {
   return page.evaluate(() => (window as unknown as { fanwisePane: { lastFan: unknown } }).fanwisePane.lastFan);
 }
+/** The points of an SVG path's d ("M x y L x y … [Z]"), in order. */
 function points(attr: string | null): [number, number][] {
-  return (attr ?? "").trim().split(/\s+/).map((p) => p.split(",").map(Number) as [number, number]);
+  return Array.from((attr ?? "").matchAll(/[ML]\s*(-?[\d.]+)[ ,](-?[\d.]+)/g), (m) => [Number(m[1]), Number(m[2])] as [number, number]);
 }
 
 test("the stand-alone page loads on the demo workbook, says so, and makes no request off the machine", async () => {
@@ -94,9 +95,9 @@ test("the fan's bands nest (95 ⊇ 80 ⊇ 50) at every step, in the numbers and 
     expect(iv(50, 1)).toBeLessThanOrEqual(iv(80, 1));
     expect(iv(80, 1)).toBeLessThanOrEqual(iv(95, 1));
   }
-  // On screen (y grows downwards): each band's polygon contains the next one's at every x.
+  // On screen (y grows downwards): each band's outline contains the next one's at every x.
   const polys: Record<string, [number, number][]> = {};
-  for (const l of [50, 80, 95]) polys[l] = points(await page.getAttribute(`#fw-chart polygon.band-${l}`, "points"));
+  for (const l of [50, 80, 95]) polys[l] = points(await page.getAttribute(`#fw-chart path.band-${l}`, "d"));
   const half = (p: [number, number][]) => p.length / 2;
   for (let k = 1; k < half(polys[95]); k++) {
     const upper = (l: number) => polys[l][k][1];
@@ -112,8 +113,8 @@ test("the mean line lies above the median line where λ < 1", async () => {
   const fan = await lastFan();
   expect(fan.lambda).toBeLessThan(1);
   for (const r of fan.rows) expect(r.mean.value).toBeGreaterThan(r.median.value);
-  const mean = points(await page.getAttribute("#fw-chart polyline.mean", "points"));
-  const median = points(await page.getAttribute("#fw-chart polyline.median", "points"));
+  const mean = points(await page.getAttribute("#fw-chart path.mean", "d"));
+  const median = points(await page.getAttribute("#fw-chart path.median", "d"));
   for (let k = 1; k < mean.length; k++) expect(mean[k][1]).toBeLessThanOrEqual(median[k][1]); // screen y: smaller is higher
   expect(await page.textContent("#fw-gap")).toMatch(/mean is [\d.]+% .* above the median/);
 });
@@ -208,11 +209,15 @@ test("coverage audit on the demo forecast log: observed vs nominal, the tests, t
   if (!(await page.isVisible("#fw-demo-log-go"))) await page.click("#fw-paste-box summary");
   await page.click("#fw-demo-log-go");
   await page.waitForSelector("#fw-audit-strip svg");
-  expect(await page.textContent("#fw-audit-readout")).toMatch(/observed coverage75\.0% of 36 \(nominal 80%\)/);
+  expect(await page.textContent("#fw-audit-readout")).toMatch(/observed coverage75\.0% of 36 \(nominal 80%; 95% interval 57\.8–87\.9%\)/);
   expect(await page.textContent("#fw-audit-readout")).toMatch(/zonegreen/);
   expect(await page.locator("#fw-audit-strip rect.miss").count()).toBe(9);
   expect(await page.locator("#fw-audit-strip rect.hit").count()).toBe(27);
-  expect(await page.textContent("#fw-audit-verdict")).toMatch(/27 of 36 actuals .* within what chance explains/);
+  expect(await page.textContent("#fw-audit-strip")).toMatch(/hit \(inside\)[\s\S]*miss above[\s\S]*miss below/);
+  expect(await page.textContent("#fw-audit-strip")).toMatch(/2023-01[\s\S]*2025-12/);
+  expect(await page.textContent("#fw-audit-headline")).toBe("Consistent with the promised coverage (zone green)");
+  expect(await page.textContent("#fw-audit-verdict")).toMatch(/27 of 36 inside \(75\.0%; 80\.0% promised\)/);
+  expect(await page.locator("#fw-audit-calibration .error-bar").count()).toBe(2); // 80% and 95% (lower95/upper95 found by name)
   await page.selectOption("#fw-audit-lower", { label: "upper80" });
   await page.selectOption("#fw-audit-upper", { label: "lower80" });
   await page.click("#fw-audit-go");
@@ -226,6 +231,9 @@ test("a backtest runs from the pane with a progress bar and shows per-step resul
   await page.click("#fw-backtest-go");
   await page.waitForSelector("#fw-backtest table", { timeout: 20000 });
   expect(await page.locator("#fw-backtest tbody tr").count()).toBe(3);
+  expect(await page.locator("#fw-backtest .fw-backtest-verdicts li").count()).toBe(3);
+  expect(await page.textContent("#fw-backtest .fw-backtest-verdicts")).toMatch(/^h = 1: (Too many misses|Misses cluster|Intervals too wide \(too few misses\)|Consistent with the promised coverage)/);
+  expect(await page.textContent("#fw-backtest")).toMatch(/Origins after 24 to \d+ values \(\d+ refits\): the first fit uses 24 values \(two full seasons of 12\)/);
   expect(await page.isHidden("#fw-backtest-progress")).toBe(true);
   expect(env.offSite).toEqual([]);
 });

@@ -3,7 +3,7 @@ import * as fs from "fs";
 import * as path from "path";
 import { EngineError, fanTable, fitForecast, screenSeries, totalForecast } from "../../engine";
 import { buildDemoWorkbook, demoForecastLogCsv, demoMonthlyCsv } from "../../demo/quillmere";
-import { fanChartSvg } from "../../taskpane/chart/fan-chart";
+import { fanChartSvg } from "../../chart/fan-chart";
 import { Command } from "../command";
 import { errorMessage } from "../series-input";
 
@@ -67,7 +67,7 @@ export const demoCommand: Command = {
     }
     const n = wb.forecastLog.length;
     lines.push("");
-    lines.push(`Forecast log: ${n} past one-month-ahead forecasts for Harbour Street; the 80% intervals missed ${miss80} times (${Math.round((100 * miss80) / n)}%), the 95% intervals ${miss95} times (${Math.round((100 * miss95) / n)}%).`);
+    lines.push(`Forecast log: ${n} past one-month-ahead forecasts for Harbour Street; the 80% intervals missed ${times(miss80)} (${Math.round((100 * miss80) / n)}%), the 95% intervals ${times(miss95)} (${Math.round((100 * miss95) / n)}%).`);
     lines.push("");
     if (chart) {
       fs.writeFileSync(path.join(dir, "quillmere-fan.svg"), chart);
@@ -85,6 +85,11 @@ export const demoCommand: Command = {
     return 0;
   },
 };
+
+/** "once", "twice", "3 times". */
+function times(k: number): string {
+  return k === 1 ? "once" : k === 2 ? "twice" : `${k} times`;
+}
 
 function money(x: number | null): string {
   return x === null || !Number.isFinite(x) ? "n/a" : Math.round(x).toLocaleString("en-GB");

@@ -1,8 +1,11 @@
 // fanwise fan: per-step means, medians and intervals for each series.
 import { FanTable, Maybe, fanTable, isEngineError } from "../../engine";
 import { Command, COMMON } from "../command";
-import { seriesError, writeOutput } from "../output";
-import { atLines, errorMessage, fitAll, periodOf, readSeriesFile, reportReading } from "../series-input";
+import { seriesChart } from "../fan-charts";
+import { ParsedArgs } from "../options";
+import { Io, emit, exitCode, seriesError } from "../output";
+import { atLines, errorMessage, fitAll, periodOf, readSeriesFile, reportReading, stepLabels } from "../series-input";
+import { SeriesData } from "../table";
 
 /** fan's own options, shared with the commands that draw or write a fan. */
 export const FAN_OPTIONS = {
@@ -12,9 +15,14 @@ export const FAN_OPTIONS = {
   levels: { type: { kind: "text" as const }, value: "80,95", help: "interval levels in percent", example: "80,95", default: "80,95" },
   period: COMMON.period,
   mean: COMMON.mean,
+  transform: COMMON.transform,
+  shift: COMMON.shift,
   zeros: COMMON.zeros,
   delimiter: COMMON.delimiter,
   decimal: COMMON.decimal,
+  series: COMMON.series,
+  sheet: COMMON.sheet,
+  range: COMMON.range,
 };
 
 /**
@@ -34,48 +42,83 @@ export function cellNotes(r: { mean: Maybe; median: Maybe; intervals: Record<str
   return Array.from(new Set(notes));
 }
 
+/** One series' fan table, or its message. */
+export interface SeriesFan {
+  name: string;
+  j: number;
+  table?: FanTable;
+  /** Missing observations inside the series. */
+  missing?: number;
+  /** The transform the series was forecast on. */
+  transform?: { kind: string; lambda: number | null; shift: number };
+  error?: string;
+}
+
+/**
+ * Reads the file and computes the fan of every chosen series with fan's options; messages that
+ * are the same for every series (a bad horizon or level) are usage errors. With `first`, only the
+ * first that many series are kept and fitted; `names` lists every series of the file.
+ * @example (await computeFans(parsed, io)).fans[0].table?.rows.length // 12
+ */
+export async function computeFans(p: ParsedArgs, io: Io, first?: number): Promise<{ data: SeriesData; fans: SeriesFan[]; H: number; names: string[] }> {
+  const H = p.int("horizon") as number;
+  const mean = p.choice("mean") ?? "auto";
+  const levels = p.text("levels");
+  const all = await readSeriesFile(p, io);
+  const data = first === undefined ? all : { ...all, names: all.names.slice(0, first), labelColumn: all.labelColumn };
+  const fans = fitAll(p, data).map((x, j): SeriesFan => {
+    if (!x.f) return { name: x.name, j, error: x.error as string };
+    try {
+      const table = fanTable(x.f, H, { levels, mean });
+      return { name: x.name, j, table: { ...table, notes: table.notes.map((n) => atLines(n, data)) }, missing: x.f.missing, transform: { kind: x.f.transform.kind, lambda: x.f.transform.lambda, shift: x.f.transform.shift } };
+    } catch (e) {
+      if (isEngineError(e) && e.code === "input" && /horizon|level/.test(e.message)) throw e; // the same for every series
+      return { name: x.name, j, error: errorMessage(e) };
+    }
+  });
+  return { data, fans, H, names: all.names };
+}
+
 export const fanCommand: Command = {
   name: "fan",
   summary: "forecast each series: mean, median and intervals for every step ahead",
   args: "FILE",
-  options: { ...FAN_OPTIONS, json: COMMON.json },
-  examples: ["fanwise fan sales.csv --horizon 12 --period 12", "fanwise fan sales.csv --horizon 6 --method drift --lambda 0 --levels 50,80,95 --json"],
-  run(p, io) {
-    const H = p.int("horizon") as number;
-    const mean = (p.choice("mean") ?? "taylor") as "taylor" | "exact";
-    const levels = p.text("levels");
-    const data = readSeriesFile(p);
+  options: { ...FAN_OPTIONS, json: COMMON.json, digits: COMMON.digits, out: COMMON.out },
+  details: ["Rows carry the period of each step (after the series' last observed value) when the file has a column of dates or periods."],
+  examples: ["fanwise fan sales.csv --horizon 12 --period 12", "fanwise fan book.xlsx --sheet Sales --horizon 12 --period 12 --out results.xlsx", "fanwise fan sales.csv --horizon 6 --method drift --lambda 0 --levels 50,80,95 --json"],
+  async run(p, io) {
+    const { data, fans, H } = await computeFans(p, io);
+    const lv = fans.find((t) => t.table)?.table?.levels ?? [80, 95];
+    // The periods of each series' steps (the calendar's labels after its last observed value);
+    // without a column of dates rows keep only h.
     const { period, periodFrom } = periodOf(p, data);
-    const label = (h: number): string => (data.next ? data.next(h) : "");
-    const tables: { name: string; table?: FanTable; missing?: number; error?: string }[] = fitAll(p, data).map((x) => {
-      if (!x.f) return { name: x.name, error: x.error as string };
-      try {
-        const table = fanTable(x.f, H, { levels, mean });
-        return { name: x.name, table: { ...table, notes: table.notes.map((n) => atLines(n, data)) }, missing: x.f.missing };
-      } catch (e) {
-        if (isEngineError(e) && e.code === "input" && /horizon|level/.test(e.message)) throw e; // the same for every series
-        return { name: x.name, error: errorMessage(e) };
-      }
-    });
-    const lv = tables.find((t) => t.table)?.table?.levels ?? [80, 95];
-    writeOutput(io, p.has("json"), {
+    const periodsOf = new Map<string, string[]>();
+    for (const t of fans) {
+      const future = t.table ? stepLabels(data, t.j, H) : null;
+      if (future) periodsOf.set(t.name, future);
+    }
+    const periods = data.calendar !== null;
+    await emit(io, p, {
+      command: "fan",
       json: () => {
         const series: Record<string, unknown> = {};
-        for (const t of tables) {
+        for (const t of fans) {
           if (!t.table) { series[t.name] = { error: t.error }; continue; }
           const tb = t.table;
           series[t.name] = {
             method: tb.method,
             lambda: tb.lambda,
+            transform: t.transform,
             sigma: tb.sigma,
             missing: t.missing,
             meanMethod: tb.meanMethod,
             period,
             periodFrom,
-            steps: tb.rows.map((r) => ({
+            steps: tb.rows.map((r, i) => ({
               h: r.h,
-              ...(data.next ? { period: label(r.h) } : {}),
+              ...(periodsOf.has(t.name) ? { period: periodsOf.get(t.name)?.[i] } : {}),
               mean: val(r.mean),
+              meanUsed: r.meanDetail.used,
               median: val(r.median),
               intervals: Object.fromEntries(Object.entries(r.intervals).map(([k, v]) => [k, [val(v[0]), val(v[1])]])),
               ...(cellNotes(r).length ? { notes: cellNotes(r) } : {}),
@@ -85,23 +128,26 @@ export const fanCommand: Command = {
         }
         return { reading: data.reading, series };
       },
-      header: ["series", "h", "period", "method", "lambda", "mean", "median", ...lv.flatMap((l) => [`low${l}`, `high${l}`]), "note"],
+      header: ["series", "h", ...(periods ? ["period"] : []), "method", "lambda", "mean", "median", ...lv.flatMap((l) => [`low${l}`, `high${l}`]), "note"],
       rows: () => {
         const rows: unknown[][] = [];
-        for (const t of tables) {
-          if (!t.table) { rows.push([t.name, "", "", "", "", "", "", ...lv.flatMap(() => ["", ""]), t.error]); continue; }
+        for (const t of fans) {
+          if (!t.table) { rows.push([t.name, "", ...(periods ? [""] : []), "", "", "", "", ...lv.flatMap(() => ["", ""]), t.error]); continue; }
           const tb = t.table;
           tb.rows.forEach((r, i) => rows.push([
-            t.name, r.h, label(r.h), tb.method, tb.lambda === null ? "none" : tb.lambda, val(r.mean), val(r.median),
+            t.name, r.h, ...(periods ? [periodsOf.get(t.name)?.[i] ?? ""] : []), tb.method, tb.lambda === null ? "none" : tb.lambda, val(r.mean), val(r.median),
             ...lv.flatMap((l) => [val(r.intervals[String(l)][0]), val(r.intervals[String(l)][1])]),
             [i === 0 ? tb.notes.join(" ") : "", ...cellNotes(r)].filter(Boolean).join(" "),
           ]));
         }
         return rows;
       },
+      formats: { lambda: "0.000" },
+      cautions: [...data.notes, ...fans.flatMap((t) => (t.table ? [] : [`${t.name}: ${t.error}`]))],
+      charts: () => fans.filter((t) => t.table).map((t) => seriesChart(data, t.j, t.table as FanTable)),
     });
-    for (const t of tables) if (!t.table) seriesError(io, t.name, t.error);
+    for (const t of fans) if (!t.table) seriesError(io, t.name, t.error);
     reportReading(io, p.has("json"), data);
-    return 0;
+    return exitCode(fans.filter((t) => t.table).length, fans.filter((t) => !t.table).length);
   },
 };

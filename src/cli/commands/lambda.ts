@@ -1,7 +1,9 @@
-// fanwise lambda: the Box-Cox λ of each series by Guerrero's method or profile likelihood.
-import { EngineError, LambdaMethod, fitLambda, screenSeries } from "../../engine";
-import { Command, COMMON } from "../command";
-import { seriesError, writeOutput } from "../output";
+// fanwise lambda: the λ of each series — by default exactly the λ a forecast with --lambda auto
+// uses (readable λ and form together by original-scale AICc), or the model's own maximum, or
+// Guerrero's method, or the i.i.d. profile likelihood — each with the interval that belongs to it.
+import { EngineError, autoShift, fitLambda, fitLambdaForModel, LambdaChoice, parseShift, screenSeries } from "../../engine";
+import { Command, COMMON, IO_OPTIONS } from "../command";
+import { emit, exitCode, seriesError } from "../output";
 import { cleanSeriesAtLines, errorMessage, lineOf, periodOf, readSeriesFile, reportReading, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const lambdaCommand: Command = {
@@ -9,32 +11,47 @@ export const lambdaCommand: Command = {
   summary: "estimate the Box-Cox λ of each series, with its interval",
   args: "FILE",
   options: {
-    method: { type: { kind: "choice", values: ["guerrero", "mle"] }, value: "guerrero|mle", help: "Guerrero's method or the profile likelihood", example: "mle", default: "guerrero" },
+    method: { type: { kind: "choice", values: ["auto", "model", "guerrero", "mle"] }, value: "auto|model|guerrero|mle", help: "auto: the λ --lambda auto uses; model: the forecasting model's own maximum-likelihood λ; guerrero; mle (i.i.d. profile likelihood)", example: "model", default: "auto" },
     period: COMMON.period,
-    delimiter: COMMON.delimiter,
-    decimal: COMMON.decimal,
+    transform: { ...COMMON.transform, type: { kind: "choice", values: ["box-cox", "yeo-johnson"] }, value: "box-cox|yeo-johnson" },
+    shift: COMMON.shift,
     bounds: { type: { kind: "pair" }, value: "LO,HI", help: "search λ between these two numbers", example: "-1,2", default: "-1,2" },
     zeros: COMMON.zeros,
-    json: COMMON.json,
+    ...IO_OPTIONS,
   },
   examples: ["fanwise lambda sales.csv --period 12", "fanwise lambda sales.csv --method mle --json"],
-  run(p, io) {
-    const method = (p.choice("method") ?? "guerrero") as LambdaMethod;
+  async run(p, io) {
+    const method = p.choice("method") ?? "auto";
+    const kind = (p.choice("transform") ?? "box-cox") as "box-cox" | "yeo-johnson";
+    const shiftSpec = parseShift(p.text("shift"));
     const [lower, upper] = p.pair("bounds") ?? [undefined, undefined];
-    const data = readSeriesFile(p);
+    const data = await readSeriesFile(p, io);
     const { period, periodFrom } = periodOf(p, data);
     const results = data.names.map((_, j) => {
       try {
         const cells = data.column(j);
-        const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI });
-        if (!screen.boxCoxUsable) throw new EngineError("input", screen.message);
+        if (kind === "box-cox" && shiftSpec === 0) {
+          const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI });
+          if (!screen.boxCoxUsable) throw new EngineError("input", screen.message);
+        }
         const clean = cleanSeriesAtLines(cells, data, j, zerosOf(p));
-        return { ok: true as const, r: fitLambda(clean.values, { method, period, lower, upper, label: data.names[j] }) };
+        const shift = kind === "box-cox" ? (shiftSpec === "auto" ? autoShift(clean.values) : shiftSpec) : 0;
+        let r: LambdaChoice;
+        if (method === "auto" || method === "model") {
+          r = fitLambdaForModel(clean.values, { kind, shift, period, label: data.names[j], lambdaMethod: method });
+        } else {
+          if (kind !== "box-cox") throw new EngineError("input", `--method ${method} is defined for Box-Cox; with --transform yeo-johnson use --method auto or model.`);
+          const y = clean.values.map((v) => v + shift);
+          if (y.some((v) => !Number.isNaN(v) && !(v > 0))) throw new EngineError("input", `${data.names[j]} has values ≤ 0 after the shift ${shift}; use --shift auto or --transform yeo-johnson.`);
+          r = fitLambda(y, { method: method as "guerrero" | "mle", period, lower, upper, label: data.names[j] });
+        }
+        return { ok: true as const, r };
       } catch (e) {
         return { ok: false as const, message: errorMessage(e) };
       }
     });
-    writeOutput(io, p.has("json"), {
+    await emit(io, p, {
+      command: "lambda",
       json: () => {
         const series: Record<string, unknown> = {};
         results.forEach((x, j) => {
@@ -48,9 +65,12 @@ export const lambdaCommand: Command = {
       rows: () => results.map((x, j) => x.ok
         ? [data.names[j], x.r.lambda, x.r.method, x.r.interval[0], x.r.interval[1], x.r.readable, x.r.loglik, x.r.onBound ?? "", x.r.note]
         : [data.names[j], "", method, "", "", "", "", "", x.message]),
+      exact: ["readable_lambda"],
+      formats: { lambda: "0.0000", interval_low: "0.0000", interval_high: "0.0000", readable_lambda: "0.00", loglik: "0.000" },
+      cautions: [...data.notes, ...results.flatMap((x, j) => (x.ok ? [] : [`${data.names[j]}: ${x.message}`]))],
     });
     for (const [j, x] of results.entries()) if (!x.ok) seriesError(io, data.names[j], x.message);
     reportReading(io, p.has("json"), data);
-    return 0;
+    return exitCode(results.filter((x) => x.ok).length, results.filter((x) => !x.ok).length);
   },
 };

@@ -57,7 +57,9 @@ export function requireLevelPercent(level: unknown, name = "level"): number {
   }
   if (v < 1) {
     // A level below 1% is almost surely a fraction typed for a percentage.
-    throw new EngineError("input", `${name} is in percent: give 95 for a 95% interval, not ${fmt(v)}.`);
+    // The example matches what was typed: 0.8 → "give 80 for an 80% interval".
+    const pct = fmt(Number((v * 100).toPrecision(12)));
+    throw new EngineError("input", `${name} is in percent: give ${pct} for ${/^(8|11|18)/.test(pct) ? "an" : "a"} ${pct}% interval, not ${fmt(v)}.`);
   }
   return v / 100;
 }

@@ -1,8 +1,9 @@
-import { fmt, requireLevelPercent } from "../_lib/check";
+import { requireLevelPercent } from "../_lib/check";
 import type { RawCell } from "../series/screen";
 import { binomialTail, christoffersenIndependence, conditionalCoverage, kupiec, LrTest, trafficLight, Zone } from "./coverage-tests";
 import { hitSequence } from "./hits";
 import { intervalScore } from "./scores";
+import { Verdict, verdictOf } from "./verdict";
 
 /** A coverage audit of published intervals against actuals. */
 export interface CoverageAudit {
@@ -17,18 +18,26 @@ export interface CoverageAudit {
   conditional: LrTest;
   /** P(X ≥ misses) under the nominal miss rate. */
   binomialTail: number;
+  /** The zone by miss count alone; show `finding.colour`, which a rejecting test raises. */
   zone: Zone;
   zoneCumulative: number;
   intervalScore: number;
   hits: number[];
-  /** Plain-language verdict. */
+  /** Side of each hit: 0 inside, 1 above the upper end, −1 below the lower end. */
+  sides: (-1 | 0 | 1)[];
+  /** Input row (0-based) of each hit. */
+  rows: number[];
+  /** The verdict (headline, numbers, the colour to show). */
+  finding: Verdict;
+  /** The verdict in words: headline, then the numbers. */
   verdict: string;
 }
 
 /**
  * Audits intervals of `levelPercent`% against actuals: hit sequence (inclusive ends, blanks
  * skipped), Kupiec's and Christoffersen's tests, the binomial tail, the traffic-light zone and the
- * mean interval score, with a verdict in words.
+ * mean interval score, with one verdict ({@link verdictOf}: two-sided, never a pass beside a
+ * rejecting test).
  * @example auditCoverage(actual, low80, high80, 80).verdict
  */
 export function auditCoverage(actual: readonly RawCell[], lower: readonly RawCell[], upper: readonly RawCell[], levelPercent: number, firstRow = 1): CoverageAudit {
@@ -46,17 +55,11 @@ export function auditCoverage(actual: readonly RawCell[], lower: readonly RawCel
   for (let i = 0; i < n; i++) is += intervalScore(h.lower[i], h.upper[i], h.actual[i], p);
   is /= n;
   const coverage = 1 - misses / n;
-  const pct = (x: number): string => `${(100 * x).toFixed(1)}%`;
-  const parts: string[] = [];
-  parts.push(`${n - misses} of ${n} actuals (${pct(coverage)}) fell inside the ${fmt(levelPercent)}% intervals; ${pct(c)} was promised.`);
-  if (uc.p < 0.05) parts.push(coverage < c ? `That is too few to be chance (Kupiec p = ${uc.p.toPrecision(2)}): the intervals are too narrow.` : `That is more than chance explains (Kupiec p = ${uc.p.toPrecision(2)}): the intervals are wider than they need to be.`);
-  else parts.push(`The difference is within what chance explains (Kupiec p = ${uc.p.toPrecision(2)}).`);
-  if (ind.note) parts.push(ind.note);
-  else if (ind.p < 0.05) parts.push(`Misses come in clusters (independence p = ${ind.p.toPrecision(2)}): after a miss, another is more likely, so the intervals react too slowly.`);
-  else parts.push(`No sign that misses cluster (independence p = ${ind.p.toPrecision(2)}).`);
-  parts.push(`Zone: ${tl.zone} (${misses} misses; P(X ≤ ${misses}) = ${tl.cumulative.toPrecision(4)} at the nominal rate).`);
+  const finding = verdictOf({ n, misses, coverage, nominal: c, kupiec: uc, independence: ind, conditional: cc, zone: tl.zone });
+  const sides = h.hits.map((v, i): -1 | 0 | 1 => (v === 0 ? 0 : h.actual[i] > h.upper[i] ? 1 : -1));
   return {
     n, skipped: h.skipped, misses, coverage, nominal: c, kupiec: uc, independence: ind, conditional: cc,
-    binomialTail: tail, zone: tl.zone, zoneCumulative: tl.cumulative, intervalScore: is, hits: h.hits, verdict: parts.join(" "),
+    binomialTail: tail, zone: tl.zone, zoneCumulative: tl.cumulative, intervalScore: is, hits: h.hits, sides, rows: h.rows,
+    finding, verdict: `${finding.headline}. ${finding.text}`,
   };
 }

@@ -64,16 +64,31 @@ export function transitions(hits: readonly number[]): Transitions {
  * @example christoffersenIndependence(hits).p
  */
 export function christoffersenIndependence(hits: readonly number[]): LrTest & Transitions {
-  const tr = transitions(hits);
-  const { n00, n01, n10, n11, pi01, pi11, pi } = tr;
+  return independenceFromCounts(transitions(hits));
+}
+
+/**
+ * Christoffersen's independence test from transition counts alone (so counts summed over several
+ * sequences — groups, or the non-overlapping subsamples of h-step forecasts — are tested as one):
+ * the same LR_ind as {@link christoffersenIndependence}, with π01, π11 and π recomputed from the counts
+ * (Christoffersen 1998, International Economic Review 39:841–862).
+ * @example independenceFromCounts({ n00: 80, n01: 10, n10: 10, n11: 0 }).p // ≈ 0.083
+ */
+export function independenceFromCounts(counts: { n00: number; n01: number; n10: number; n11: number }): LrTest & Transitions {
+  const { n00, n01, n10, n11 } = counts;
+  const pi01 = n00 + n01 > 0 ? n01 / (n00 + n01) : 0;
+  const pi11 = n10 + n11 > 0 ? n11 / (n10 + n11) : 0;
+  const total = n00 + n01 + n10 + n11;
+  const pi = total > 0 ? (n01 + n11) / total : 0;
   const l0 = xlogy(n00 + n10, 1 - pi) + xlogy(n01 + n11, pi);
   const l1 = xlogy(n00, 1 - pi01) + xlogy(n01, pi01) + xlogy(n10, 1 - pi11) + xlogy(n11, pi11);
   const lr = Math.max(0, -2 * l0 + 2 * l1);
   let note = "";
-  if (n01 + n11 === 0) note = "No misses after the first row: there is no clustering to test.";
+  if (total === 0) note = "No pair of consecutive rows: there is no clustering to test.";
+  else if (n01 + n11 === 0) note = "No misses after the first row: there is no clustering to test.";
   else if (n00 + n10 === 0) note = "Every row after the first is a miss: there is no clustering to test.";
   else if (n10 + n11 === 0) note = "No row follows a miss, so the rate after a miss cannot be estimated.";
-  return { ...tr, lr, p: chiSquareSf(lr, 1), df: 1, note };
+  return { n00, n01, n10, n11, pi01, pi11, pi, lr, p: chiSquareSf(lr, 1), df: 1, note };
 }
 
 /**
@@ -105,10 +120,14 @@ export type Zone = "green" | "yellow" | "red";
  * generalised to any level and count: green while the cumulative probability P(X ≤ misses) is
  * below 95%, yellow below 99.99%, red beyond (Basel Committee on Banking Supervision, Supervisory
  * framework for the use of "backtesting"…, January 1996). For 250 observations at 99% this gives
- * green 0–4, yellow 5–9, red 10 or more.
+ * green 0–4, yellow 5–9, red 10 or more. A count at or below the expected n·p is always green
+ * (zero misses in 4 rows at 99% would otherwise read yellow).
  * @example trafficLight(5, 250, 0.01).zone // "yellow"
  */
 export function trafficLight(misses: number, n: number, p: number): { zone: Zone; cumulative: number } {
   const cumulative = 1 - binomialTail(misses + 1, n, p);
+  // No more misses than expected is never a warning: with few rows at a high level, P(X ≤ 0)
+  // alone can exceed 95%, which the framework's 250-row table never meets.
+  if (misses <= n * p) return { zone: "green", cumulative };
   return { zone: cumulative < 0.95 ? "green" : cumulative < 0.9999 ? "yellow" : "red", cumulative };
 }

@@ -113,14 +113,18 @@ export function backtransformMeanExact(mu: number, sigma: number, lambda: number
     );
   }
   const base = lambda * mu + 1;
-  // The log of the integrand is concave in z, so it stays below its peak times exp(−(z − peak)²/2).
-  const zPeak = (-base + Math.sqrt(base * base + 4 * lambda * sigma * sigma)) / (2 * lambda * sigma);
+  // The log of the integrand, log1p(λ(μ + σz))/λ − z²/2, is concave in z with its peak where
+  // λσz² + (1 + λμ)z − σ = 0; the root is written 2σ/(b + √(b² + 4λσ²)) so it keeps its digits for
+  // tiny λ (the textbook (−b + √…)/(2λσ) cancels). log1p likewise keeps (1 + λw)^(1/λ) accurate as
+  // λ → 0 (at λ = 1e-13 the plain log lost the mean below the median).
+  const zPeak = (2 * sigma) / (base + Math.sqrt(base * base + 4 * lambda * sigma * sigma));
   const zFloor = (-1 / lambda - mu) / sigma;
   const lo = Math.max(zFloor, zPeak - 40);
   const hi = zPeak + 40;
+  const { exp, log1p } = Math;
   const f = (z: number): number => {
-    const b = base + lambda * sigma * z;
-    return b > 0 ? Math.exp(Math.log(b) / lambda) * normalPdf(z) : 0;
+    const a = lambda * (mu + sigma * z);
+    return a > -1 ? exp(log1p(a) / lambda) * normalPdf(z) : 0;
   };
   const left = lo < zPeak ? integrate(f, lo, zPeak, 1e-14) : { value: 0, error: 0 };
   const right = integrate(f, Math.max(lo, zPeak), hi, 1e-14);
@@ -129,18 +133,29 @@ export function backtransformMeanExact(mu: number, sigma: number, lambda: number
   return { mean, floorProbability: zFloor < -38 ? 0 : normalCdf(zFloor), error: left.error + right.error, method: "quadrature" };
 }
 
-/** Mean by the named method: `taylor` (default) or `exact`. */
-export type MeanMethod = "taylor" | "exact";
+/**
+ * Which mean: `auto` (the exact mean where it exists, λ ≥ 0; the Taylor value with its accuracy
+ * where it does not, λ < 0; METHODS §9), `exact`, or `taylor`.
+ */
+export type MeanMethod = "auto" | "exact" | "taylor";
+
+/** The mean-method keywords the faces accept. */
+export const MEAN_METHODS: readonly MeanMethod[] = ["auto", "exact", "taylor"];
 
 /**
- * Bias-adjusted mean by the chosen method (see {@link backtransformMeanTaylor} and
- * {@link backtransformMeanExact}).
- * @example backtransformMean(2, 1, 0, "exact") // 12.182493960703473
+ * Bias-adjusted mean by the chosen method: `auto` (default) is the exact mean for λ ≥ 0 and the
+ * Taylor value for λ < 0, where no exact mean exists (see {@link backtransformMeanTaylor} and
+ * {@link backtransformMeanExact}; METHODS §9).
+ * @example backtransformMean(2, 1, 0) // 12.182493960703473 (exact: e^2.5)
  */
-export function backtransformMean(mu: number, sigma: number, lambda: number, method: MeanMethod = "taylor"): number {
+export function backtransformMean(mu: number, sigma: number, lambda: number, method: MeanMethod = "auto"): number {
   if (method === "taylor") return backtransformMeanTaylor(mu, sigma, lambda);
   if (method === "exact") return backtransformMeanExact(mu, sigma, lambda).mean;
-  throw new EngineError("input", `Unknown mean method "${String(method)}". Use "taylor" or "exact".`);
+  if (method === "auto") {
+    check(mu, sigma, lambda);
+    return lambda > -LAMBDA_ZERO ? backtransformMeanExact(mu, sigma, lambda).mean : backtransformMeanTaylor(mu, sigma, lambda);
+  }
+  throw new EngineError("input", `Unknown mean method "${String(method)}". Use "auto", "exact" or "taylor".`);
 }
 
 function pct(p: number): string {

@@ -34,10 +34,11 @@ function checkTriple(median: number, lower: number, upper: number): void {
  * Recovers the transformed-scale normal forecast from a median m and a central interval [L, U] of
  * level c (percent) published on the original scale, and its bias-adjusted mean:
  * μ = g(m), σ = (g(U) − g(L))/(2·z_{(1+c)/2}), g the Box-Cox transform with the given λ (default 0,
- * the log). METHODS §4 (a consequence of quantile preservation under monotone maps).
- * @example meanFromInterval(100, 60, 166.67, 95).mean // ≈ 106.9 (log scale, Taylor)
+ * the log); the mean by `method` (`auto` default: exact where it exists, λ ≥ 0; Taylor for λ < 0).
+ * METHODS §4 (a consequence of quantile preservation under monotone maps).
+ * @example meanFromInterval(100, 60, 166.67, 95).mean // ≈ 106.9 (log scale, exact)
  */
-export function meanFromInterval(median: number, lower: number, upper: number, levelPercent: number, lambda = 0, method: MeanMethod = "taylor"): RecoveredForecast {
+export function meanFromInterval(median: number, lower: number, upper: number, levelPercent: number, lambda = 0, method: MeanMethod = "auto"): RecoveredForecast {
   checkTriple(median, lower, upper);
   const c = requireLevelPercent(levelPercent);
   requireLambda(lambda);

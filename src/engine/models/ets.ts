@@ -235,6 +235,45 @@ function startGrid(spec: Spec): number[][] {
   return pts;
 }
 
+/**
+ * A last local refinement that respects the box: coordinate by coordinate, Brent's method (Brent
+ * 1973) on a window of ±0.05 around the point, with the box edge itself tried whenever the window
+ * reaches it (Nelder–Mead and Brent both stop a little short of an optimum on a bound); repeated
+ * while any coordinate improves (at most 2 rounds). Issue 12 §3: no fit may be beaten by a point
+ * inside its own box.
+ */
+function refineInBox(obj: (u: number[]) => number, x0: number[], f0: number): { x: number[]; fx: number } {
+  let x = x0.slice();
+  let fx = f0;
+  for (let round = 0; round < 2; round++) {
+    let improved = false;
+    for (let i = 0; i < x.length; i++) {
+      const at = (v: number): number => {
+        const y = x.slice();
+        y[i] = v;
+        return obj(y);
+      };
+      const lo = Math.max(0, x[i] - 0.05);
+      const hi = Math.min(1, x[i] + 0.05);
+      const tries: { v: number; f: number }[] = [];
+      const r = minimizeBounded(at, lo, hi, 1e-8);
+      tries.push({ v: r.x, f: r.fx });
+      if (lo === 0) tries.push({ v: 0, f: at(0) });
+      if (hi === 1) tries.push({ v: 1, f: at(1) });
+      for (const t of tries) {
+        if (t.f < fx - 1e-13 * Math.abs(fx)) {
+          x = x.slice();
+          x[i] = t.v;
+          fx = t.f;
+          improved = true;
+        }
+      }
+    }
+    if (!improved) break;
+  }
+  return { x, fx };
+}
+
 /** Options for {@link fitSmoothing}. */
 export interface SmoothingFitOptions {
   /** Nelder–Mead runs from the best grid starts (default 2). */
@@ -289,7 +328,7 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
       if (f < bf) { bf = f; bi = i; }
     }
     const r = minimizeBounded((u) => obj([u]), Math.max(0, bi - 1) / (pts - 1), Math.min(pts - 1, bi + 1) / (pts - 1), 1e-9);
-    bestU = [r.x];
+    bestU = refineInBox(obj, [r.x], r.fx).x;
   } else {
     const grid = startGrid(spec).map((u) => ({ u, f: obj(u) })).sort((a, b) => a.f - b.f);
     const chosen: number[][] = [];
@@ -303,7 +342,8 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
       if (r.fx < best.fx) best = r;
     }
     const polish = minimizeBox(obj, best.x, 0.01, 1e-10, 1e-7, 150);
-    bestU = polish.fx < best.fx ? polish.x : best.x;
+    const top = polish.fx < best.fx ? polish : best;
+    bestU = refineInBox(obj, top.x, top.fx).x;
   }
   const p = smoothingFromUnit(bestU, spec);
   return buildModel(y, method, period, p, statesAt(p));
@@ -336,6 +376,21 @@ export function checkGapsFit(y: readonly number[], method: SmoothingMethod, peri
       throw new EngineError("input", `${SMOOTHING[method].title} (${method}) needs at least one observation in every season, but ${empty.length === 1 ? "one season has" : `${empty.length} seasons have`} none: every value at position ${j + 1} of the ${m}-period season (periods ${at.join(", ")}, … of the series) is missing. Fill one of them, or use a non-seasonal method.`);
     }
   }
+}
+
+/**
+ * The model with given smoothing parameters and the initial states that are best for them (exact
+ * least squares, as inside {@link fitSmoothing}): the concentrated likelihood at one point of the
+ * parameter box, e.g. to check that no point of the box beats a fit (Hyndman et al. 2008, ch. 5).
+ * @example smoothingAtParams(logAir, "ses", 1, { alpha: 0.9, beta: 0, gamma: 0, phi: 1 }).loglik // ≤ fitSmoothing(logAir, "ses", 1).loglik
+ */
+export function smoothingAtParams(y: readonly number[], method: SmoothingMethod, period: number, p: Smoothing): FittedModel {
+  const spec = specOf(method, period);
+  const need = minimumLength(method, period);
+  if (y.length < need) throw new EngineError("input", `${SMOOTHING[method].title} (${method}) needs at least ${need} values; the series has ${y.length}.`);
+  const ws = workspace(y.length, spec);
+  concentrate(y, spec, p, ws);
+  return buildModel(y, method, period, p, statesOf(ws, spec));
 }
 
 /**

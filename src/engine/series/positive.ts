@@ -26,7 +26,7 @@ export function requirePositiveSeries(values: readonly number[], minLength: numb
     const parts: string[] = [];
     if (zeros) parts.push(`${zeros} zero${zeros > 1 ? "s" : ""}`);
     if (negatives) parts.push(`${negatives} negative value${negatives > 1 ? "s" : ""}`);
-    throw new EngineError("input", `Box-Cox needs values > 0; ${label} has ${parts.join(" and ")} (first at position ${firstBad + 1}). Shift the series by a constant or use Yeo-Johnson.`);
+    throw new EngineError("input", `Box-Cox needs values > 0; ${label} has ${parts.join(" and ")} (first at position ${firstBad + 1}). Use shift "auto" (command line: --shift auto) or transform "yeo-johnson" (command line: --transform yeo-johnson).`);
   }
   if (values.length < minLength) {
     throw new EngineError("input", `${cap(label)} is too short for ${purpose}: it has ${values.length} value${values.length === 1 ? "" : "s"}, at least ${minLength} are needed.`);

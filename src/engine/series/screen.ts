@@ -1,7 +1,8 @@
 import { EngineError, isEngineError } from "../errors";
 import { fmt } from "../_lib/check";
-import { fitLambda, LambdaChoice } from "../transform/fit-lambda";
-import { guerreroWindowsUsable } from "../transform/guerrero";
+import type { LambdaChoice } from "../transform/fit-lambda";
+import { fitLambdaForModel, LAMBDA_CHOICE_MAX } from "../models/lambda-choice";
+import { autoShift } from "../transform/shift";
 import { MLE_MIN_LENGTH } from "../transform/lambda-mle";
 import { isBlank, cap } from "../_lib/cells";
 import { MAX_MISSING_SHARE, ZEROS_OPTION_ALL_FACES, ZerosRule } from "./clean";
@@ -37,11 +38,11 @@ export interface ScreenResult {
   negatives: number;
   nonPositive: number;
   boxCoxUsable: boolean;
-  /** Suggested λ (the readable value inside the likelihood interval), when Box-Cox is usable. */
+  /** Suggested λ: exactly the λ a forecast with lambda "auto" (method "auto") uses, when Box-Cox is usable. */
   suggestedLambda: number | null;
   lambda: LambdaChoice | null;
   fix: SuggestedFix;
-  /** Suggested shift c for a shifted Box-Cox (value + c > 0), when the fix is "shift" or "yeo-johnson". */
+  /** The shift "auto" would add for a shifted Box-Cox (value + c > 0), when the fix is "shift" or "yeo-johnson". */
   shift: number | null;
   /** A sentence a user understands. */
   message: string;
@@ -50,10 +51,11 @@ export interface ScreenResult {
 
 /**
  * Screens a raw series for Box-Cox: counts numbers, blanks (leading, trailing, interior) and text;
- * finds the minimum and values ≤ 0; says whether Box-Cox is usable, suggests λ (Guerrero 1993 with
- * window = period, 2 when period is 1; maximum likelihood, Box & Cox 1964, when the series is too
- * short for two windows) and, when Box-Cox is not usable, the fix (shift by c, Yeo-Johnson 2000,
- * read isolated zeros as missing observations — naming the face's option, `zerosOption` — or
+ * finds the minimum and values ≤ 0; says whether Box-Cox is usable, suggests the λ a forecast with
+ * lambda "auto" uses (readable λ and form together by original-scale AICc; Box & Cox 1964 for the
+ * likelihood) with the chosen form's likelihood interval and, when Box-Cox is not usable, the fix
+ * naming the argument that works (shift "auto", transform "yeo-johnson" — Yeo & Johnson 2000 —,
+ * read isolated zeros as missing observations — naming the face's option, `zerosOption` —, or
  * "too short"). Interior blanks are missing observations (λ is chosen with them in place); more
  * than MAX_MISSING_SHARE of them gets the fix "fill-gaps". With `zeros: "missing"` zeros are
  * read as missing too.
@@ -127,15 +129,16 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
     return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix: "no-numbers", shift: null, message: `${cap(label)} has no numbers.${textNote}` };
   }
   if (nonPositive > 0) {
-    const smallestPositive = numbers.filter((v) => v > 0).reduce((a, b) => Math.min(a, b), Infinity);
-    const shift = -(min as number) + (Number.isFinite(smallestPositive) ? smallestPositive : 1);
+    const shift = autoShift(numbers);
     const what = [zeros ? `${zeros} zero${zeros > 1 ? "s" : ""}` : "", negatives ? `${negatives} negative value${negatives > 1 ? "s" : ""}` : ""].filter(Boolean).join(" and ");
     const fix: SuggestedFix = negatives > 0 ? "yeo-johnson" : zerosIsolated ? "zeros-missing" : "shift";
+    const yj = `transform "yeo-johnson" (command line: --transform yeo-johnson)`;
+    const sh = `shift "auto", which adds ${fmt(shift)} (command line: --shift auto)`;
     const advice = negatives > 0
-      ? `Use Yeo-Johnson, or shift by c = ${fmt(shift)} before Box-Cox`
+      ? `Use ${yj}, or ${sh}`
       : zerosIsolated
-        ? `If ${zeros > 1 ? "those periods were" : "that period was"} closed, read zeros as missing observations: ${zerosOption}. Otherwise shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`
-        : `Shift it by c = ${fmt(shift)} before Box-Cox, or use Yeo-Johnson`;
+        ? `If ${zeros > 1 ? "those periods were" : "that period was"} closed, read zeros as missing observations: ${zerosOption}. Otherwise use ${sh}, or ${yj}`
+        : `Use ${sh}, or ${yj}`;
     return { ...base, boxCoxUsable: false, suggestedLambda: null, lambda: null, fix, shift, message: `Not Box-Cox ready: ${label} has ${what} (minimum ${fmt(min as number)}, first at ${where(firstBad)}); Box-Cox needs values > 0. ${advice}.${textNote}` };
   }
   if (numbers.length < MLE_MIN_LENGTH) {
@@ -144,19 +147,6 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
   if (numbers.every((v) => v === numbers[0])) {
     return { ...base, boxCoxUsable: true, suggestedLambda: 1, lambda: null, fix: "constant", shift: null, message: `${cap(label)} is constant; no transform is needed (λ = 1).${textNote}` };
   }
-  const window = period > 1 ? period : 2;
-  let lambda: LambdaChoice;
-  try {
-    let method: "guerrero" | "mle" = span >= 2 * window ? "guerrero" : "mle";
-    if (method === "guerrero" && missing > 0 && guerreroWindowsUsable(positioned, window).used < 2) method = "mle";
-    lambda = fitLambda(positioned, { method, period, label });
-  } catch (e) {
-    if (!isEngineError(e)) throw e;
-    return { ...base, boxCoxUsable: true, suggestedLambda: null, lambda: null, fix: "too-short", shift: null, message: `${e.message}${textNote}` };
-  }
-  const how = lambda.method === "guerrero"
-    ? `Guerrero's method, windows of ${window}${lambda.skippedWindows ? `, ${lambda.skippedWindows} skipped for missing points` : ""}`
-    : `maximum likelihood (${span >= 2 * window ? `too few of Guerrero's windows of ${window} without gaps` : `too short for Guerrero's windows of ${window}`})`;
   const missingAt: string[] = [];
   for (let i = first + 1; i < last; i++) if (isBlank(cells[i]) || (zerosMissing && cells[i] === 0)) missingAt.push(where(i));
   const tooMany = missing > MAX_MISSING_SHARE * span;
@@ -166,15 +156,23 @@ export function screenSeries(cells: readonly RawCell[], options: { period?: numb
       ? ` ${missing} ${what}${missing > 1 ? "s" : ""} inside the series (${Math.round((100 * missing) / span)}% of ${span} periods, at ${listPositions(missingAt)}): at most ${Math.round(100 * MAX_MISSING_SHARE)}% may be missing for a forecast; fill some of them.`
       : ` ${missing} ${what}${missing > 1 ? "s" : ""} inside the series (at ${listPositions(missingAt)}) ${missing > 1 ? "are missing observations" : "is a missing observation"}: the forecast allows for ${missing > 1 ? "them" : "it"}.`
     : "";
+  let lambda: LambdaChoice;
+  try {
+    lambda = fitLambdaForModel(positioned, { period, label });
+  } catch (e) {
+    if (!isEngineError(e)) throw e;
+    return { ...base, boxCoxUsable: true, suggestedLambda: null, lambda: null, fix: tooMany ? "fill-gaps" : "too-short", shift: null, message: `${e.message}${gaps}${textNote}` };
+  }
+  const how = `the rule lambda "auto" uses: readable λ and smoothing form chosen together by AICc on the original scale${numbers.length > LAMBDA_CHOICE_MAX ? `, on the latest ${LAMBDA_CHOICE_MAX.toLocaleString("en-US")} values` : ""}`;
   const lead = leadingBlanks ? ` ${leadingBlanks} leading blank${leadingBlanks > 1 ? "s" : ""} skipped.` : "";
   return {
     ...base,
     boxCoxUsable: true,
-    suggestedLambda: lambda.readable,
+    suggestedLambda: lambda.lambda,
     lambda,
     fix: tooMany ? "fill-gaps" : "none",
     shift: null,
-    message: `Box-Cox ready. Suggested λ = ${fmt(lambda.readable)} (estimate ${fmt(lambda.lambda)} by ${how}).${lead}${gaps}${textNote}`,
+    message: `Box-Cox ready. Suggested λ = ${fmt(lambda.lambda)} (${how}).${lead}${gaps}${textNote}`,
   };
 }
 

@@ -10,6 +10,7 @@ import { sortedQuantile } from "../_lib/sorted-quantile";
 import { cleanSeries } from "../series/clean";
 import type { RawCell } from "../series/screen";
 import { LAMBDA_ZERO } from "../transform/box-cox";
+import { exactMeanExists, transformInverse } from "../transform/spec";
 import { checkHorizon, Forecaster } from "../models/fit";
 import { checkWindowStart, fanTable } from "../models/fan";
 import type { TotalRange } from "./published";
@@ -176,8 +177,8 @@ export function totalAcross(forecasters: readonly Forecaster[], horizon: number,
   const meanOption = options.mean ?? "auto";
   if (meanOption !== "auto" && meanOption !== "exact" && meanOption !== "taylor") throw new EngineError("input", `Unknown mean method "${String(meanOption)}". Use "auto", "exact" or "taylor".`);
   const series: AcrossSeries[] = forecasters.map((f) => {
-    const exact = meanOption === "exact" || (meanOption === "auto" && (f.lambda === null || f.lambda >= 0));
-    if (meanOption === "auto" && !exact) notes.push(`${f.label}: λ = ${fmt(f.lambda as number)} < 0, where no exact mean exists; its mean is the Taylor approximation.`);
+    const exact = meanOption === "exact" || (meanOption === "auto" && exactMeanExists(f.transform));
+    if (meanOption === "auto" && !exact) notes.push(`${f.label}: at λ = ${fmt(f.lambda as number)} no exact mean exists; its mean is the Taylor approximation.`);
     const rows = fanTable(f, H, { levels: [80], mean: exact ? "exact" : "taylor" }).rows;
     let s: number | null = 0;
     for (const r of rows) {
@@ -231,19 +232,25 @@ export function totalAcross(forecasters: readonly Forecaster[], horizon: number,
     const simI = (f.simulateShocks as NonNullable<Forecaster["simulateShocks"]>)(H, paths, sub, a >= 0 ? indep[a] : new Float64Array(paths * H));
     const { exp, log1p } = Math; // local: no global lookup per value
     const add = (sim: Float64Array, totals: Float64Array): void => {
+      const tr = f.transform;
       const lam = f.lambda;
+      const boxCox = tr.kind === "box-cox";
+      const shift = boxCox ? tr.shift : 0;
       const logScale = lam !== null && Math.abs(lam) < LAMBDA_ZERO;
       for (let r = 0; r < paths; r++) {
         let t = 0;
         for (let j = from - 1; j < H; j++) {
           const w = sim[r * H + j];
           if (lam === null) t += w;
-          else if (logScale) t += exp(w);
+          else if (!boxCox) t += transformInverse(tr, w).value; // Yeo-Johnson: defined everywhere
+          else if (logScale) t += exp(w) - shift;
           else {
             const base = lam * w;
-            if (base > -1) t += exp(log1p(base) / lam);
-            else if (lam > 0) floored++;
-            else t = Infinity;
+            if (base > -1) t += exp(log1p(base) / lam) - shift;
+            else if (lam > 0) {
+              floored++; // the floor: y + shift = 0
+              t -= shift;
+            } else t = Infinity;
           }
         }
         totals[r] += t;

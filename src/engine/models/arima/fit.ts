@@ -11,6 +11,7 @@ import { EngineError } from "../../errors";
 import { createRandom } from "../../_lib/random";
 import { minimizeBfgs } from "../../_lib/bfgs";
 import { solveSymmetric } from "../../_lib/cholesky";
+import { choleskyLower } from "../../_lib/cholesky-factor";
 import type { FittedModel, StepMoments } from "../types";
 import { armaFilter, armaSystem, ArmaFilterResult, ArmaSystem } from "./kalman";
 import { ArimaOrder, arimaTitle, formatArimaOrder } from "./order";
@@ -109,6 +110,12 @@ function observedMean(x: readonly number[]): number {
  */
 export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaParams & { sigma2?: number }, withStandardErrors = true): ArimaModel {
   const o = order;
+  // Checked before any lag polynomial is built: a seasonal period longer than the series (e.g. a
+  // mistyped period) must be refused, not allocated.
+  const seasonalLag = o.m * Math.max(o.P, o.Q, o.D);
+  if (w.length < arimaMinimumLength(o) || seasonalLag >= w.length) {
+    throw new EngineError("input", `${arimaTitle(o)} needs at least ${Math.max(arimaMinimumLength(o), seasonalLag + 1)} values (period ${o.m}); the series has ${w.length}. Use a smaller order, the right period, or a longer history.`);
+  }
   const c = differencingPolynomial(o.d, o.D, o.m);
   const K = c.length - 1;
   const n = w.length;
@@ -351,7 +358,9 @@ function forecastMoments(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c:
 function simulateArima(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c: readonly number[], lastW: readonly number[], sigma: number, h: number, paths: number, seed: number): Float64Array {
   const { r, ar, R } = sys;
   const p = ar.length;
-  const chol = semidefiniteCholesky(filt.PNext, r);
+  // P_{n+1|n} is positive semi-definite by construction (a pivot zero to rounding gives a zero column)
+  const chol = choleskyLower(filt.PNext, r);
+  if (!chol) throw new EngineError("domain", "The ARIMA model's final state covariance is not positive semi-definite (a numerical breakdown); simulate with a smaller order or another method.");
   const rng = createRandom(seed);
   const out = new Float64Array(paths * h);
   const K = c.length - 1;
@@ -375,25 +384,4 @@ function simulateArima(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c: r
     }
   }
   return out;
-}
-
-/** Cholesky factor of a positive semi-definite matrix (zero columns where a pivot vanishes). */
-function semidefiniteCholesky(A: Float64Array, d: number): Float64Array {
-  const L = new Float64Array(d * d);
-  let scale = 0;
-  for (let i = 0; i < d; i++) scale = Math.max(scale, Math.abs(A[i * d + i]));
-  const tol = 1e-12 * (scale || 1);
-  for (let j = 0; j < d; j++) {
-    let s = A[j * d + j];
-    for (let k = 0; k < j; k++) s -= L[j * d + k] * L[j * d + k];
-    if (s <= tol) continue;
-    const ljj = sqrt(s);
-    L[j * d + j] = ljj;
-    for (let i = j + 1; i < d; i++) {
-      let t = A[i * d + j];
-      for (let k = 0; k < j; k++) t -= L[i * d + k] * L[j * d + k];
-      L[i * d + j] = t / ljj;
-    }
-  }
-  return L;
 }

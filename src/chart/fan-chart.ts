@@ -1,6 +1,6 @@
 // Pure geometry and SVG for the fan chart (no DOM): history, 95/80/50% bands, the mean and median
 // lines, a rule at the forecast origin, axes and a legend — in the look fixed for Fanwise.
-import type { FanTable } from "../../engine";
+import type { FanTable } from "../engine";
 
 export const COLORS = {
   history: "#3b3b3b",
@@ -97,8 +97,13 @@ export function fanGeometry(input: FanChartInput): FanGeometry {
   };
 }
 
-function pts(p: [number, number][]): string {
-  return p.map(([a, b]) => `${a.toFixed(1)},${b.toFixed(1)}`).join(" ");
+/**
+ * An SVG path through the points: "M x y L x y …", closed with Z only when asked. Lines are open
+ * paths, not polylines, because some renderers close a polyline back to its first point.
+ * @example pathData([[0, 0], [1, 2]]) // "M0.0 0.0 L1.0 2.0"
+ */
+export function pathData(p: [number, number][], close = false): string {
+  return p.map(([a, b], i) => `${i === 0 ? "M" : "L"}${a.toFixed(1)} ${b.toFixed(1)}`).join(" ") + (close ? " Z" : "");
 }
 
 function esc(s: string): string {
@@ -130,13 +135,13 @@ export function fanChartSvg(input: FanChartInput): string {
     parts.push(`<text x="${g.plot.left - 4}" y="${(g.y(t) + 3).toFixed(1)}" font-size="9" text-anchor="end" fill="${COLORS.axis}">${short(t)}</text>`);
   }
   for (const b of g.bands) {
-    parts.push(`<polygon class="band band-${b.level}" points="${pts([...b.upper, ...b.lower.slice().reverse()])}" fill="${bandColor(b.level)}" stroke="none"/>`);
+    parts.push(`<path class="band band-${b.level}" d="${pathData([...b.upper, ...b.lower.slice().reverse()], true)}" fill="${bandColor(b.level)}" stroke="none"/>`);
   }
   const ox = g.x(g.origin).toFixed(1);
   parts.push(`<line class="origin" x1="${ox}" x2="${ox}" y1="${g.plot.top}" y2="${g.plot.bottom}" stroke="${COLORS.rule}" stroke-width="1"/>`);
-  parts.push(`<polyline class="history" points="${pts(g.history)}" fill="none" stroke="${COLORS.history}" stroke-width="1.5"/>`);
-  parts.push(`<polyline class="mean" points="${pts(g.mean)}" fill="none" stroke="${COLORS.mean}" stroke-width="2"/>`);
-  parts.push(`<polyline class="median" points="${pts(g.median)}" fill="none" stroke="${COLORS.median}" stroke-width="1"/>`);
+  parts.push(`<path class="history" d="${pathData(g.history)}" fill="none" stroke="${COLORS.history}" stroke-width="1.5"/>`);
+  parts.push(`<path class="mean" d="${pathData(g.mean)}" fill="none" stroke="${COLORS.mean}" stroke-width="2"/>`);
+  parts.push(`<path class="median" d="${pathData(g.median)}" fill="none" stroke="${COLORS.median}" stroke-width="1"/>`);
   for (const [a, b] of g.median.slice(1)) {
     parts.push(`<path class="median-marker" d="M${a.toFixed(1)} ${(b - 3).toFixed(1)} l3 3 l-3 3 l-3 -3 z" fill="${COLORS.median}"/>`);
   }
