@@ -77,7 +77,7 @@ test("the stand-alone page loads on the demo workbook, says so, and makes no req
 test("the zero-month and the credit-month series carry the badge with the right reason", async () => {
   const row = (name: string) => page.locator(`#fw-check tr[data-series="${name}"]`);
   expect(await row("Old Quay").locator(".fw-badge").textContent()).toBe("not Box-Cox ready");
-  expect(await row("Old Quay").locator(".fw-reason").textContent()).toMatch(/1 zero \(minimum 0, first at 2023-02\).*tick "Treat zeros as missing" in the fan controls\. Otherwise shift it by c/);
+  expect(await row("Old Quay").locator(".fw-reason").textContent()).toMatch(/1 zero \(minimum 0, first at 2023-02\).*tick "Treat zeros as missing" in the fan controls\. Otherwise use shift "auto"/);
   expect(await row("Parts costs (net)").locator(".fw-badge").textContent()).toBe("not Box-Cox ready");
   expect(await row("Parts costs (net)").locator(".fw-reason").textContent()).toMatch(/1 negative value.*Yeo-Johnson/);
   expect(await row("Harbour Street").locator(".fw-badge").count()).toBe(0);
