@@ -75,5 +75,15 @@ describe("the paste box (AirPassengers 1949, R datasets, exported the European w
     const tab = "year\tlynx\n1821\t269\n1822\t3.409\n1823\t2.285\n";
     expect(() => pastedData(tab)).toThrow(/Decimal mark: point or Decimal mark: comma/);
     expect(pastedData(tab, ",").columns[0]).toEqual([269, 3409, 2285]);
+  });  test("a pasted forecast log (periods repeat, one row per series) is read in the order pasted for the audit, and not forecast as one series", () => {
+    // invented log (Quillmere shops are fictional): two shops, the same two months each
+    const log = "month\tseries\tactual\tlower80\tupper80\n2024-01\tHarbour\t100\t90\t110\n2024-02\tHarbour\t104\t92\t112\n2024-01\tQuay\t50\t45\t58\n2024-02\tQuay\t61\t46\t59\n";
+    const d = pastedData(log);
+    expect(d.problem).toMatch(/The period 2024-01 appears twice in "month" \(line 2 and line 4\).*Read in the order pasted, for an audit/);
+    expect(d.names).toEqual(["actual", "lower80", "upper80"]);
+    expect(d.columns[0]).toEqual([100, 104, 50, 61]);
+    expect(d.labelColumns?.map((l) => l.name)).toEqual(["month", "series"]);
+    expect(d.labelColumns?.[1].values).toEqual(["Harbour", "Harbour", "Quay", "Quay"]);
+    expect(selectionProblem(d)).toBe(d.problem);
   });
 });
