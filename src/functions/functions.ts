@@ -5,7 +5,7 @@ import {
   backtransformMean, backtransformQuantile, boxCoxInverse, boxCoxShifted, boxCoxShiftedInverse, boxCox,
   fitLambda, impliedLambda, meanFromInterval, screenSeries, yeoJohnson, yeoJohnsonInverse, cleanSeries, EngineError, checkLevelPercent, checkLambda,
 } from "../engine";
-import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditLog, pinball, backtestAsync, RawCell } from "../engine";
+import { fanTable, quantileTable, totalForecast, describeForecaster, parseLevels, Maybe, METHODS, parseMethod, isArimaMethod, checkHorizon, auditLog, pinball, backtestAsync, RawCell, calibrationTable } from "../engine";
 import { publishedTotal, parseDependence, alignSeries, totalAcross, smearingMean, checkWindowStart, Forecaster } from "../engine";
 import { fitLambdaForModel, MEAN_METHODS, TRANSFORMS, parseShift } from "../engine";
 import { optionalInteger, optionalKeyword, optionalNumber, readMatrix, readSeries, requiredNumber, optionalBoolean, readLevels, readLambda, readProbs, readShift } from "./coerce";
@@ -491,6 +491,39 @@ export function PINBALL(actuals: any[][], quantiles: any[][], p: number): number
     if (n === 0) throw new EngineError("input", "No row has both an actual and a quantile.");
     return finiteResult(sum / n, "The mean pinball loss");
   });
+}
+
+/**
+ * Calibration of past quantile forecasts: per probability, the share of actuals at or below the quantile (a calibrated forecast makes it p), its exact 95% interval, Kupiec's p-value for that share against p, and the mean pinball loss.
+ * @customfunction CALIBRATION
+ * @helpurl https://localhost:3000/README.html#fwcalibration
+ * @param {any[][]} actuals What happened, one per row (a row with any blank is skipped).
+ * @param {any[][]} quantiles The forecast quantiles, same rows, one column per probability, from the lowest probability to the highest.
+ * @param {any[][]} probs The probabilities of those columns, e.g. 0.1, 0.5, 0.9 (a row of cells or text like "0.1,0.5,0.9").
+ * @returns {any[][]} One row per probability: p, rows used, share at or below, its 95% interval (low, high), Kupiec p-value, mean pinball loss.
+ */
+export function CALIBRATION(actuals: any[][], quantiles: any[][], probs: any[][]): any[][] {
+  return guard(() => {
+    const raw = singleText(probs);
+    const ps = raw === null ? readProbs(probs) : raw.split(/[,;\s]+/).filter((t) => t !== "").map((t) => {
+      const x = Number(t);
+      if (!Number.isFinite(x)) throw new EngineError("input", `probs must be numbers strictly between 0 and 1, e.g. "0.1,0.5,0.9"; got "${t.slice(0, 20)}".`);
+      return x;
+    });
+    const a = column(actuals, "actuals");
+    const q = readMatrix(quantiles, "quantiles");
+    const width = q[0].length;
+    if (width !== ps.length) throw new EngineError("input", `quantiles has ${width} column${width === 1 ? "" : "s"} but ${ps.length} probabilit${ps.length === 1 ? "y was" : "ies were"} given: give one probability per quantile column, in the same order.`);
+    if (q.length !== a.length) throw new EngineError("input", `actuals and quantiles must have the same number of rows; they have ${a.length} and ${q.length}.`);
+    const t = calibrationTable(a, ps.map((p, j) => ({ p, cells: q.map((r) => r[j]) })));
+    return finiteTable(t.rows.map((r) => [r.p, r.n, r.hitRate, r.interval[0], r.interval[1], r.test.p, finiteResult(r.pinball, "The mean pinball loss")]));
+  });
+}
+
+/** The text of a one-cell argument, or null when it is a number or a range of several cells. */
+function singleText(v: unknown): string | null {
+  const x = Array.isArray(v) && v.length === 1 && Array.isArray(v[0]) && v[0].length === 1 ? v[0][0] : v;
+  return typeof x === "string" ? x : null;
 }
 
 /**

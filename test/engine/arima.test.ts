@@ -273,6 +273,36 @@ describe("ARIMA intervals in a rolling-origin backtest (seeded simulation; Tashm
   });
 });
 
+describe("ARIMA paths driven by given shocks (for totals across series)", () => {
+  test("arima:0,1,0 with given shocks is exactly the last value plus σ times their running sum (the random walk's definition)", () => {
+    const y = Array.from({ length: 30 }, (_, i) => 5 + Math.sin(i) + 0.05 * i);
+    const m = fitArima(y, { p: 0, d: 1, q: 0, P: 0, D: 0, Q: 0, m: 1, constant: false });
+    const shocks = Float64Array.from([0.5, -1, 2, 0.25, 1, -0.5]);
+    const sim = m.simulateShocks?.(3, 2, 7, shocks) as Float64Array;
+    const s = m.sigma;
+    const expected = [y[29] + 0.5 * s, y[29] - 0.5 * s, y[29] + 1.5 * s, y[29] + 0.25 * s, y[29] + 1.25 * s, y[29] + 0.75 * s];
+    expected.forEach((e, i) => expectClose(sim[i], e, { rtol: 1e-14 }, `path value ${i}`));
+  });
+  test("arima:1,1,1 on log AirPassengers: independent shocks give each step the forecast's own mean and variance (20,000 paths, within 4 Monte Carlo standard errors)", () => {
+    const y = dataset("AirPassengers").map(Math.log);
+    const m = fitArima(y, { p: 1, d: 1, q: 1, P: 0, D: 0, Q: 0, m: 1, constant: false });
+    const H = 6, N = 20000;
+    const rng = createRandom(3);
+    const shocks = new Float64Array(N * H);
+    for (let i = 0; i < shocks.length; i++) shocks[i] = rng.normal();
+    const sim = m.simulateShocks?.(H, N, 11, shocks) as Float64Array;
+    m.forecast(H).forEach((st, j) => {
+      let mean = 0, sq = 0;
+      for (let r = 0; r < N; r++) mean += sim[r * H + j];
+      mean /= N;
+      for (let r = 0; r < N; r++) sq += (sim[r * H + j] - mean) ** 2;
+      const sd = Math.sqrt(sq / (N - 1));
+      expect(Math.abs(mean - st.mean)).toBeLessThan(4 * st.sd / Math.sqrt(N));
+      expect(Math.abs(sd / st.sd - 1)).toBeLessThan(4 / Math.sqrt(2 * N)); // sd of a sample sd ≈ σ/√(2N) (normal theory)
+    });
+  });
+});
+
 describe("ARIMA with a mistyped period", () => {
   test("a seasonal period longer than the series is refused before anything is allocated", () => {
     const y = Array.from({ length: 40 }, (_, i) => 10 + i * 0.1 + Math.sin(i));

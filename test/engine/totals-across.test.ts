@@ -135,8 +135,27 @@ describe("series of different lengths and bad input", () => {
   });
 });
 
-test("a method that cannot yet be simulated jointly (ARIMA) is refused, naming the series and what to do", () => {
-  const { history } = generate(9, 48, 0);
-  const fs = [fitForecast(history[0], { method: "naive", lambda: 0, label: "shop 1" }), fitForecast(history[1], { method: "arima:0,1,1", lambda: 0, label: "shop 2" })];
-  expect(() => totalAcross(fs, 6)).toThrow(/shop 2's method \(arima.*\) cannot yet be simulated jointly with other series; choose another method/);
+describe("ARIMA series are simulated jointly too (arima:0,1,0 is the random walk the data follow)", () => {
+  const fitArima = (history: number[][]): Forecaster[] => history.map((h, i) => fitForecast(h, { method: "arima:0,1,0", lambda: 0, label: `shop ${i + 1}` }));
+  test("the mean is the sum of the per-series exact means and the residual correlation is recovered", () => {
+    const fs = fitArima(generate(1, 72, 12).history);
+    const t = totalAcross(fs, 12, { level: 95 });
+    const perSeries = fs.reduce((s, f) => s + (totalForecast(f, 12, { mean: "exact" }).mean.value as number), 0);
+    expectClose(t.mean as number, perSeries, { rtol: 1e-12 }, "Σ FW.TOTAL means");
+    expect(Math.abs((t.simulatedMean as number) - (t.mean as number))).toBeLessThan(4 * (t.monteCarloError as number));
+    for (const [i, j] of [[0, 1], [0, 2], [1, 2]]) expect(Math.abs(t.correlation[i][j] - RHO)).toBeLessThan(0.2);
+    expect(t.interval[1] as number).toBeGreaterThan(t.independent.interval[1] as number);
+  });
+  test("coverage in 100 repeated simulations: the joint 95% interval covers the true total within binomial bounds", () => {
+    let joint = 0;
+    for (let r = 0; r < 100; r++) {
+      const { history, future } = generate(5000 + r, 72, 12);
+      const t = totalAcross(fitArima(history), 12, { level: 95, paths: 2000, seed: r + 1 });
+      const truth = future.reduce((s, f) => s + f.reduce((a, b) => a + b, 0), 0);
+      if (truth >= t.interval[0] && truth <= (t.interval[1] as number)) joint++;
+    }
+    // Binomial(100, 0.95) (scipy 1.17.1 scipy.stats.binom): P(X ≤ 88) = 0.0043, P(X = 100) = 0.0059
+    expect(joint).toBeGreaterThanOrEqual(89);
+    console.log(`ARIMA coverage of 100 repetitions: joint ${joint}/100`);
+  });
 });

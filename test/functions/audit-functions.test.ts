@@ -39,6 +39,37 @@ describe("FW.COVERAGE", () => {
   });
 });
 
+describe("FW.CALIBRATION (source: test/fixtures/audit-log/make_audit_log.py, scipy chi2/beta.ppf computed directly)", () => {
+  const FIX = JSON.parse(fs.readFileSync(path.join(__dirname, "../fixtures/audit-log/audit_log.json"), "utf8"));
+  const rows: Record<string, number>[] = FIX.groups.rows;
+  const probs = [0.1, 0.25, 0.5, 0.75, 0.9];
+  const q = rows.map((r) => probs.map((p) => r[`q${100 * p}`]));
+  const y = col(rows.map((r) => r.actual));
+  test("five quantile columns: share at or below, Clopper–Pearson 95% bounds, Kupiec p and pinball per probability", () => {
+    for (const ps of [[probs], "0.1, 0.25, 0.5, 0.75, 0.9", [["0.1,0.25,0.5,0.75,0.9"]]]) {
+      const out = FW.CALIBRATION(y, q, ps as never) as number[][];
+      expect(out).toHaveLength(5);
+      out.forEach((r, k) => {
+        const e = FIX.calibration.expected.rows[k];
+        expect(r.slice(0, 2)).toEqual([e.p, e.n]);
+        expectClose(r[2], e.hit_rate, { rtol: 1e-12 }, "share at or below");
+        expectClose(r[3], e.cp_low, { rtol: 1e-9 }, "Clopper–Pearson low");
+        expectClose(r[4], e.cp_high, { rtol: 1e-9 }, "Clopper–Pearson high");
+        expectClose(r[5], e.kupiec_p, { rtol: 1e-10 }, "Kupiec p");
+        expectClose(r[6], e.pinball, { rtol: 1e-12 }, "pinball");
+      });
+    }
+  });
+  test("bad input says what to fix: probabilities out of order, a count that does not match the columns, a quantile row that falls, text probabilities", () => {
+    const err = (f: () => unknown): ShimError => { try { f(); } catch (e) { return e as ShimError; } throw new Error("no error"); };
+    expect(isCellError(err(() => FW.CALIBRATION(y, q, [[0.9, 0.75, 0.5, 0.25, 0.1]])), "#VALUE!", /out of order: p = 0.75 comes after p = 0.9/)).toBe(true);
+    expect(isCellError(err(() => FW.CALIBRATION(y, q, [[0.1, 0.9]])), "#VALUE!", /quantiles has 5 columns but 2 probabilities were given/)).toBe(true);
+    expect(isCellError(err(() => FW.CALIBRATION([[100], [100]], [[90, 110], [120, 80]], [[0.1, 0.9]])), "#VALUE!", /Row 2: the 0.9 quantile \(80\) is below the 0.1 quantile \(120\)/)).toBe(true);
+    expect(isCellError(err(() => FW.CALIBRATION(y, q, [["ten percent"]])), "#VALUE!", /probs must be numbers strictly between 0 and 1/)).toBe(true);
+    expect(isCellError(err(() => FW.CALIBRATION([[1], [2]], [[1], [2], [3]], [[0.5]])), "#VALUE!", /same number of rows; they have 2 and 3/)).toBe(true);
+  });
+});
+
 describe("FW.INTERVALSCORE and FW.PINBALL (source: coverage.interval_score fixture)", () => {
   const e = check("coverage.interval_score").expected.filter((x: { alpha: number }) => x.alpha === 0.05);
   test("mean interval score of the fixture's 95% rows", () => {

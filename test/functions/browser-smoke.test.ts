@@ -8,7 +8,7 @@ import { check } from "../helpers/reference";
 import "../helpers/custom-functions-shim";
 import * as FW from "../../src/functions/functions";
 
-const EXPECTED = ["BOXCOX", "BOXCOXINV", "YEOJOHNSON", "YEOJOHNSONINV", "FITLAMBDA", "SCREEN", "BTMEAN", "BTQUANTILE", "MEANFROMINTERVAL", "IMPLIEDLAMBDA", "FAN", "QUANTILES", "TOTAL", "MODELINFO", "COVERAGE", "INTERVALSCORE", "PINBALL", "BACKTEST", "TOTALFROMINTERVALS", "TOTALACROSS", "SMEARMEAN"];
+const EXPECTED = ["BOXCOX", "BOXCOXINV", "YEOJOHNSON", "YEOJOHNSONINV", "FITLAMBDA", "SCREEN", "BTMEAN", "BTQUANTILE", "MEANFROMINTERVAL", "IMPLIEDLAMBDA", "FAN", "QUANTILES", "TOTAL", "MODELINFO", "COVERAGE", "INTERVALSCORE", "PINBALL", "CALIBRATION", "BACKTEST", "TOTALFROMINTERVALS", "TOTALACROSS", "SMEARMEAN"];
 
 test("the built functions bundle registers every FW function in Chromium and computes", async () => {
   const bundle = fromRoot("dist", "functions.js");

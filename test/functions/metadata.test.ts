@@ -29,6 +29,7 @@ const expected: Record<string, [string, boolean][]> = {
   COVERAGE: [["actuals", false], ["lower", false], ["upper", false], ["level", false], ["groups", true], ["horizons", true]],
   INTERVALSCORE: [["actuals", false], ["lower", false], ["upper", false], ["level", false], ["groups", true], ["horizons", true]],
   PINBALL: [["actuals", false], ["quantiles", false], ["p", false]],
+  CALIBRATION: [["actuals", false], ["quantiles", false], ["probs", false]],
   BACKTEST: [["values", false], ["horizon", false], ["method", true], ["lambda", true], ["level", true], ["period", true], ["first", true], ["transform", true], ["shift", true], ["mean", true]],
 };
 

@@ -218,6 +218,9 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
     simulate(h: number, paths: number, seed: number): Float64Array {
       return simulateArima(sys, filt, coefficients.mu, c, lastW, sigma, h, paths, seed);
     },
+    simulateShocks(h: number, paths: number, seed: number, shocks: Float64Array): Float64Array {
+      return simulateArima(sys, filt, coefficients.mu, c, lastW, sigma, h, paths, seed, shocks);
+    },
   });
 }
 
@@ -354,12 +357,24 @@ function forecastMoments(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c:
 /**
  * Sample paths of the levels: draw the state error from N(0, σ²P_{n+1|n}), run the ARMA state
  * recursion with N(0, σ²) shocks, add μ and integrate the differences. Row-major, paths × h.
+ * With `shocks` (standard normals, paths × h) the innovation of step j is σ·shocks[j]: the state
+ * error at n + 1 splits into R·ε_{n+1} (the first step's innovation, given) and T P_{n|n} T′ =
+ * P_{n+1|n} − R R′ (what the data leave unknown about the state, drawn from `seed`), so the paths
+ * have the same distribution as without shocks when the shocks are independent (the state equation
+ * a_{t+1} = T a_t + R ε_{t+1} of Gardner, Harvey & Phillips 1980).
  */
-function simulateArima(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c: readonly number[], lastW: readonly number[], sigma: number, h: number, paths: number, seed: number): Float64Array {
+function simulateArima(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c: readonly number[], lastW: readonly number[], sigma: number, h: number, paths: number, seed: number, shocks?: Float64Array): Float64Array {
   const { r, ar, R } = sys;
   const p = ar.length;
-  // P_{n+1|n} is positive semi-definite by construction (a pivot zero to rounding gives a zero column)
-  const chol = choleskyLower(filt.PNext, r);
+  let cov: ArrayLike<number> = filt.PNext;
+  if (shocks) {
+    if (shocks.length !== paths * h) throw new EngineError("domain", `Need ${paths * h} shocks (paths × h); got ${shocks.length}.`);
+    const rest = Float64Array.from(filt.PNext);
+    for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) rest[i * r + j] -= R[i] * R[j];
+    cov = rest;
+  }
+  // P_{n+1|n} (and P_{n+1|n} − R R′ = T P_{n|n} T′) is positive semi-definite by construction (a pivot zero to rounding gives a zero column)
+  const chol = choleskyLower(cov, r);
   if (!chol) throw new EngineError("domain", "The ARIMA model's final state covariance is not positive semi-definite (a numerical breakdown); simulate with a smaller order or another method.");
   const rng = createRandom(seed);
   const out = new Float64Array(paths * h);
@@ -369,11 +384,12 @@ function simulateArima(sys: ArmaSystem, filt: ArmaFilterResult, mu: number, c: r
   const level = new Float64Array(K + h);
   for (let path = 0; path < paths; path++) {
     for (let i = 0; i < r; i++) z[i] = rng.normal();
-    for (let i = 0; i < r; i++) { let s = 0; for (let k = 0; k <= i; k++) s += chol[i * r + k] * z[k]; alpha[i] = filt.aNext[i] + sigma * s; }
+    const first = shocks ? sigma * shocks[path * h] : 0;
+    for (let i = 0; i < r; i++) { let s = 0; for (let k = 0; k <= i; k++) s += chol[i * r + k] * z[k]; alpha[i] = filt.aNext[i] + sigma * s + R[i] * first; }
     for (let i = 0; i < K; i++) level[i] = lastW[i];
     for (let j = 0; j < h; j++) {
       if (j > 0) {
-        const e = sigma * rng.normal();
+        const e = sigma * (shocks ? shocks[path * h + j] : rng.normal());
         const a0 = alpha[0];
         for (let i = 0; i < r; i++) alpha[i] = (i < p ? ar[i] * a0 : 0) + (i + 1 < r ? alpha[i + 1] : 0) + R[i] * e;
       }
