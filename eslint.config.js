@@ -27,6 +27,15 @@ module.exports = tseslint.config(
     },
   },
   {
+    // The shared reader is pure too: faces read files or cells and hand it text or values.
+    files: ["src/io/**/*.ts"],
+    rules: {
+      "@typescript-eslint/no-explicit-any": "error",
+      "no-restricted-imports": ["error", { paths: [NO_MATHJS_PARSER], patterns: ["fs", "path", "os", "child_process", "node:*", "office-*", "*/functions/*", "*/taskpane/*", "*/cli/*"] }],
+      "no-restricted-globals": ["error", "window", "document", "Office", "Excel", "CustomFunctions", "process"],
+    },
+  },
+  {
     files: ["src/functions/**/*.ts", "src/taskpane/**/*.ts", "src/cli/**/*.ts", "src/demo/**/*.ts"],
     rules: { "no-restricted-imports": ["error", { paths: [NO_MATHJS_PARSER] }] },
   },

@@ -64,7 +64,9 @@ export function checkDigits(v: string, name: string): number {
 /** Options shared by several commands, declared once so they read the same everywhere. */
 export const COMMON = {
   json: switchOption("print JSON (full precision) instead of CSV"),
-  period: { type: { kind: "int", min: 1 }, value: "N", help: "seasonal period: 12 for monthly data, 4 for quarterly", example: "12", default: "1" },
+  period: { type: { kind: "int", min: 1 }, value: "N", help: "seasonal period: 12 for monthly data, 4 for quarterly (default: from the dates, else 1)", example: "12", default: "from the dates" },
+  delimiter: { type: { kind: "text" }, value: ",|;|tab", help: "the file's delimiter (default: detected; a sep= first line is honoured)", example: ";", default: "detected" },
+  decimal: { type: { kind: "choice", values: [",", "."] }, value: ",|.", help: "the numbers' decimal mark (default: decided per column from its values)", example: ",", default: "decided per column" },
   horizon: { type: { kind: "int", min: 1 }, value: "H", help: "how many periods ahead to forecast", example: "12", required: "how many periods ahead to forecast, e.g. --horizon 12." },
   method: { type: { kind: "custom", check: checkMethod }, value: "M", help: "forecasting method, one of the Methods below", example: "holt-winters", default: "auto" },
   lambda: { type: { kind: "custom", check: checkLambda }, value: "L", help: "λ: a number, auto (readable λ and form by AICc), model (the model's own maximum), guerrero, mle or none", example: "0", default: "auto" },
@@ -81,4 +83,4 @@ export const COMMON = {
 } satisfies Record<string, OptionSpec>;
 
 /** The options every per-series command takes for reading its file and writing its table. */
-export const IO_OPTIONS = { series: COMMON.series, sheet: COMMON.sheet, range: COMMON.range, json: COMMON.json, digits: COMMON.digits, out: COMMON.out };
+export const IO_OPTIONS = { series: COMMON.series, sheet: COMMON.sheet, range: COMMON.range, delimiter: COMMON.delimiter, decimal: COMMON.decimal, json: COMMON.json, digits: COMMON.digits, out: COMMON.out };

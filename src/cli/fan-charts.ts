@@ -3,7 +3,7 @@
 import { FanTable } from "../engine";
 import { fanChartSvg } from "../chart/fan-chart";
 import { ChartPicture } from "./output";
-import { chartHistory, futureLabels } from "./series-input";
+import { chartHistory, stepLabels } from "./series-input";
 import { SeriesData } from "./table";
 
 /** The chart's size in pixels: wide enough for dates under the axis and the legend in one row. */
@@ -17,7 +17,8 @@ export const CHART_SIZE = { width: 720, height: 360 };
 export function seriesChart(data: SeriesData, j: number, table: FanTable, size = CHART_SIZE): ChartPicture {
   const h = chartHistory(data, j, Math.max(36, 3 * table.rows.length));
   const labelled = h.labels.some((l) => l !== "");
-  const labels = labelled ? [...h.labels, ...futureLabels(h.labels, table.rows.length)] : undefined;
+  const H = table.rows.length;
+  const labels = labelled ? [...h.labels, ...(stepLabels(data, j, H) ?? Array.from({ length: H }, (_, k) => `+${k + 1}`))] : undefined;
   const title = `${data.names[j]}: ${table.method}, λ ${table.lambda === null ? "none" : Number(table.lambda.toPrecision(3))}, ${table.rows.length} step${table.rows.length === 1 ? "" : "s"} ahead`;
   return { title, svg: fanChartSvg({ title, history: h.values, labels, fan: table, ...size }), ...size };
 }

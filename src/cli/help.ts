@@ -8,10 +8,15 @@ seasonal ARIMA) or an ARIMA order: arima:p,d,q or arima:p,d,q/P,D,Q, +c for a co
 is the random walk with drift).
 Lambda: a number, auto (default), guerrero, mle, or none (no transform).`;
 
-const FILES = `FILE is a CSV whose first row names the columns, or an .xlsx workbook (--sheet NAME, --range B2:H74;
-numbers and dates as the workbook stores them, formulas by their saved results). Lines starting
-with # are comments (CSV); a column of labels (dates, periods) is skipped; every other column is a
-series; blank cells are gaps.`;
+const FILES = `FILE is a CSV whose first row names the columns (comma, semicolon or tab, detected; a sep= first
+line is honoured; lines starting with # are comments), or an .xlsx workbook (--sheet NAME, --range
+B2:H74; numbers and dates as the workbook stores them, formulas by their saved results). The column
+of dates or periods (2024-01, 31.01.2024, 01/31/2024, Jan-24, 2024 Q1, years, serial dates under a
+date header) sets the time order, the period (monthly 12, quarterly 4, yearly 1, weekly 52, daily 7)
+and the labels of the forecast; a skipped period is a blank (missing) at its place; a Total row is
+left out (with a note). Every other column of numbers is a series, its number format (1,234.5 /
+1.234,5 / 1'234.5, currency, percent, (1,850), 1.850-) decided from the whole column; blank cells
+are missing observations. --json adds a "reading" object.`;
 
 const EXIT = `Exit codes: 0 every series computed; 1 nothing computed, or a usage or file error; 3 some series
 failed (their messages are in the output and on stderr).`;

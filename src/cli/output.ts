@@ -4,7 +4,7 @@
 import * as fs from "fs";
 import * as path from "path";
 import { EngineError } from "../engine";
-import { toCsv } from "./csv";
+import { toCsv } from "../io";
 import { ParsedArgs } from "./options";
 
 /** Output streams, replaceable in tests. */

@@ -1,12 +1,13 @@
-// Reading the file of a command (CSV or .xlsx) as a table or as series, and fitting every series
-// with the shared options (--method, --lambda, --period), each series keeping its own message when
-// it cannot be used.
+// Reading the file of a command (CSV or .xlsx) through the shared reader (src/io) as a table or as
+// series, and fitting every series with the shared options (--method, --lambda, --period, …), each
+// series keeping its own message when it cannot be used.
 import * as path from "path";
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
+import { DecimalMark, parseDelimiterOption, readTable, SeriesTable } from "../io";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs, usageError } from "./options";
 import { Io, oneLine } from "./output";
-import { CellTable, SeriesData, csvTable, tableSeries } from "./table";
+import { SeriesData, tableSeries } from "./table";
 
 /**
  * The one file argument of a command; a usage error when there is none or more than one.
@@ -17,32 +18,94 @@ export function fileArgument(p: ParsedArgs, example: string): string {
   return p.positional[0];
 }
 
+/** A command's file as the shared reader read it, with the notes of how its cells were read. */
+export interface InputTable {
+  table: SeriesTable;
+  /** The source's own notes (a workbook's merged cells, formulas without results). */
+  notes: string[];
+}
+
 /**
- * Reads the command's file as a table: .xlsx by --sheet and --range, anything else as CSV. How the
- * file was read (merged cells, formulas without results) is said on stderr as notes.
- * @example (await readTable(parsed, io, "fanwise audit log.csv …")).header // ["month", "actual", …]
+ * Reads the command's file through the shared reader: .xlsx by --sheet and --range (numbers and
+ * dates as the workbook stores them, text cells read like CSV fields), anything else as CSV
+ * (--delimiter); --decimal for both. A workbook's own notes (merged cells, formulas without
+ * results) are said on stderr. `calendar: false` reads the rows in the file's order (a forecast
+ * log repeats periods).
+ * @example (await readInputTable(parsed, io, "fanwise audit log.csv …")).table.header // ["month", "actual", …]
  */
-export async function readTable(p: ParsedArgs, io: Io, example: string): Promise<CellTable> {
+export async function readInputTable(p: ParsedArgs, io: Io, example: string, options: { calendar?: boolean; keepLabels?: boolean } = {}): Promise<InputTable> {
   const file = fileArgument(p, example);
+  const read = { calendar: options.calendar, decimal: p.choice("decimal") as DecimalMark | undefined };
   if (path.extname(file).toLowerCase() === ".xlsx") {
+    if (p.has("delimiter")) throw usageError(`--delimiter is for CSV files; ${file} is an .xlsx workbook, whose cells need no delimiter.`);
     const { readXlsxTable } = await import("./xlsx-read");
     const t = await readXlsxTable(file, { sheet: p.text("sheet"), range: p.text("range") });
     for (const n of t.notes) io.err(`fanwise: note: ${oneLine(n)}\n`);
-    return t;
+    return { table: readTable(t.columns, read), notes: t.notes };
   }
   for (const k of ["sheet", "range"]) {
     if (p.has(k)) throw usageError(`--${k} is for .xlsx workbooks; ${file} is read as CSV (its name does not end in .xlsx).`);
   }
-  return csvTable(readCsvFile(file));
+  const d = p.text("delimiter");
+  const cols = readCsvFile(file, { delimiter: d === undefined ? undefined : parseDelimiterOption(d), keepLabels: options.keepLabels });
+  return { table: readTable(cols, read), notes: [] };
 }
 
 /**
- * Reads the command's file as series (label column skipped, one series per other column), only
- * those named by --series when it is given.
+ * Reads the command's file as series (the period column read as the calendar, one series per
+ * column of numbers), only those named by --series when it is given.
  * @example (await readSeriesFile(parsed, io)).names // ["Harbour Street", …]
  */
 export async function readSeriesFile(p: ParsedArgs, io: Io): Promise<SeriesData> {
-  return tableSeries(await readTable(p, io, "fanwise screen sales.csv"), p.text("series"));
+  const t = await readInputTable(p, io, "fanwise screen sales.csv");
+  return tableSeries(t.table, t.notes, p.text("series"));
+}
+
+/** The period a command uses for a file, and where it comes from. */
+export interface PeriodChoice {
+  period: number;
+  /** option: --period; dates: the period column's frequency; default: 1 (no dates). */
+  periodFrom: "option" | "dates" | "default";
+}
+
+/**
+ * The period: --period when given, else the one the file's dates imply (monthly 12, quarterly 4,
+ * yearly 1, weekly 52, daily 7), else 1.
+ * @example periodOf(parsed, data) // { period: 12, periodFrom: "dates" }
+ */
+export function periodOf(p: ParsedArgs, data: SeriesTable): PeriodChoice {
+  const given = p.int("period");
+  return given !== undefined ? { period: given, periodFrom: "option" } : { period: data.period, periodFrom: data.periodFrom };
+}
+
+/**
+ * Says how the file was read when it matters (rows left out, order changed, skipped periods): in
+ * CSV mode one "fanwise: note: …" line each on stderr (with --json the `reading` object says it).
+ * @example reportReading(io, false, data) // stderr: "fanwise: note: Line 146 ("Total") is not a period; left out."
+ */
+export function reportReading(io: Io, json: boolean, data: SeriesTable): void {
+  if (json) return;
+  for (const n of data.reading.notes) io.err(`fanwise: note: ${oneLine(n)}\n`);
+}
+
+/**
+ * The period labels of series j's H forecast steps: the periods after its last observed value (a
+ * series whose last rows are blank is forecast from its last value, so its steps start earlier
+ * than the file's end). Null when the file has no calendar (no period column of dates).
+ * @example stepLabels(data, 0, 2) // ["2026-01", "2026-02"]
+ */
+export function stepLabels(data: SeriesData, j: number, H: number): string[] | null {
+  const cal = data.calendar;
+  if (!cal || !data.next) return null;
+  const cells = data.column(j);
+  let last = cells.length - 1;
+  while (last >= 0 && (cells[last] === null || cells[last] === undefined || String(cells[last]).trim() === "")) last--;
+  const n = cal.labels.length;
+  const next = data.next;
+  return Array.from({ length: H }, (_, k) => {
+    const at = last + k + 1;
+    return at < n ? cal.labels[at] : next(at - (n - 1));
+  });
 }
 
 /**
@@ -114,7 +177,7 @@ export interface SeriesFit {
  * @example fitAll(parsed, data)[0].f?.method // "holt-winters"
  */
 export function fitAll(p: ParsedArgs, data: SeriesData): SeriesFit[] {
-  const period = p.int("period") ?? 1;
+  const { period } = periodOf(p, data);
   const method = p.value<string>("method") ?? "auto";
   const lambda = p.value<string>("lambda") ?? "auto";
   const transform = p.has("transform") ? p.choice("transform") : undefined;
@@ -153,28 +216,4 @@ export function chartHistory(data: SeriesData, j: number, keep: number): { value
     }
   });
   return { values: values.slice(-keep), labels: at.slice(-keep) };
-}
-
-/**
- * Labels of the H forecast periods after the history's last label. HOOK: the shared reader in
- * src/io (period labels and the calendar) replaces this once it lands; until then a label is
- * extended only when it is plainly monthly (YYYY-MM or a YYYY-MM-DD date on the same day of
- * consecutive months) or a year, and otherwise the steps are "+1" … "+H".
- * @example futureLabels(["2025-11", "2025-12"], 2) // ["2026-01", "2026-02"]
- */
-export function futureLabels(labels: string[], H: number): string[] {
-  const last = labels[labels.length - 1] ?? "";
-  const prev = labels[labels.length - 2] ?? "";
-  const month = /^(\d{4})-(\d{2})(-01)?$/;
-  const a = month.exec(last);
-  const b = month.exec(prev);
-  if (a && b && Number(a[1]) * 12 + Number(a[2]) - (Number(b[1]) * 12 + Number(b[2])) === 1 && (a[3] ?? "") === (b[3] ?? "")) {
-    const base = Number(a[1]) * 12 + Number(a[2]) - 1;
-    return Array.from({ length: H }, (_, k) => {
-      const m = base + k + 1;
-      return `${Math.floor(m / 12)}-${String((m % 12) + 1).padStart(2, "0")}${a[3] ?? ""}`;
-    });
-  }
-  if (/^\d{4}$/.test(last) && /^\d{4}$/.test(prev) && Number(last) - Number(prev) === 1) return Array.from({ length: H }, (_, k) => String(Number(last) + k + 1));
-  return Array.from({ length: H }, (_, k) => `+${k + 1}`);
 }

@@ -1,93 +1,66 @@
-// A file read as a table of cells, whatever its format (CSV or .xlsx), and its series: the label
-// column, the series columns, and where each data row is in the file (for messages).
+// A file's series as the shared reader (src/io) reads them, from a CSV file or an .xlsx sheet alike:
+// narrowed to --series, with the notes of how the file was read; and the same table as cells by
+// column, for an audit's forecast log.
 import { EngineError, RawCell } from "../engine";
-import { CsvColumns } from "./csv";
+import { SeriesTable } from "../io";
 
-/** A file's cells by column, with the header's names. */
+/** The series of a file (the shared reader's table, narrowed to --series). */
+export interface SeriesData extends SeriesTable {
+  /** How the file was read, for the user: the source's notes (a workbook's merged cells, …) and the reading's (rows left out, skipped periods). */
+  notes: string[];
+}
+
+/**
+ * Narrows a table read by the shared reader to the series named by `only` (the text of --series),
+ * in the order given; without it keeps every series. Throws when a name in `only` is not a series
+ * (listing the series there are).
+ * @example tableSeries(readCsvText("month,a,b\n2024-01,1,2\n2024-02,3,4\n"), [], "b").names // ["b"]
+ */
+export function tableSeries(t: SeriesTable, sourceNotes: string[], only?: string): SeriesData {
+  const notes = [...sourceNotes, ...t.reading.notes];
+  if (!only) return { ...t, notes };
+  const pick = parseSeriesList(only, t.names).map((n) => {
+    const k = t.names.indexOf(n);
+    if (k < 0) {
+      const hint = t.names.find((x) => x.toLowerCase() === n.toLowerCase());
+      throw new EngineError("input", `--series: no series named "${n}"${hint ? ` (did you mean "${hint}"? names are matched exactly)` : ""}. Series in this file: ${t.names.join(", ")}.`);
+    }
+    return k;
+  });
+  return { ...t, names: pick.map((k) => t.names[k]), column: (j) => t.column(pick[j]), notes };
+}
+
+/** A file's cells by column, with the header's names (an audit's forecast log). */
 export interface CellTable {
   header: string[];
   rows: number;
+  /** Column j's cells: a column of numbers read with its number format, any other column as text. */
   cells: (j: number) => RawCell[];
-  /** Column j's cells as label text (dates as YYYY-MM-DD). */
+  /** Column j's cells as label text (periods as the reader writes them, e.g. 2024-01). */
   labels: (j: number) => string[];
-  /** Whether column j holds labels (dates, periods, text) rather than a series. */
+  /** Whether column j holds labels (dates, periods, text) rather than numbers. */
   isLabel: (j: number) => boolean;
-  /** Where data row i (0-based) is in the file, e.g. "line 14" or "row 14 of Sales". */
+  /** Where data row i (0-based) is in the file, e.g. "line 14" or "row 14 of sheet "Sales"". */
   where: (i: number) => string;
-  /** How the file was read, for the user (merged cells, formulas without results, …). */
+  /** How the file was read, for the user. */
   notes: string[];
 }
 
 /**
- * A CSV file's columns as a CellTable (rows named by their line).
- * @example csvTable(parseCsv("m,a\n1,2\n")).where(0) // "line 2"
+ * A table read by the shared reader as cells by column (rows in the file's order when it was read
+ * without a calendar).
+ * @example cellTable(readCsvText("m,a\n1,2\n", { calendar: false }), []).cells(1) // [2]
  */
-export function csvTable(cols: CsvColumns): CellTable {
+export function cellTable(t: SeriesTable, sourceNotes: string[]): CellTable {
+  const cells = (j: number): RawCell[] => t.columnNamed(t.header[j]) ?? [];
   return {
-    header: cols.header,
-    rows: cols.rows,
-    cells: (j) => cols.cells(j),
-    labels: (j) => cols.labels(j),
-    isLabel: (j) => cols.isLabel(j),
-    where: (i) => `line ${cols.line(i)}`,
-    notes: [],
-  };
-}
-
-/** The series of a table. */
-export interface SeriesData {
-  names: string[];
-  /** The cells of series j. */
-  column: (j: number) => RawCell[];
-  /** The label column's name and values, when there is one. */
-  labelColumn: { name: string; values: string[] } | null;
-  where: (i: number) => string;
-  rows: number;
-  notes: string[];
-}
-
-/**
- * Splits a table into its label column (the first column that holds labels) and its series; with
- * `only` (the text of --series), keeps just those series, in the order given. Throws when there is no series, or when a
- * name in `only` is not a series (listing the series there are).
- * @example tableSeries(csvTable(parseCsv("month,a,b\n2024-01,1,2\n")), "b").names // ["b"]
- */
-export function tableSeries(t: CellTable, only?: string): SeriesData {
-  const names: string[] = [];
-  const index: number[] = [];
-  let labelIndex = -1;
-  t.header.forEach((h, j) => {
-    if (t.isLabel(j)) {
-      if (labelIndex < 0) labelIndex = j;
-      return;
-    }
-    names.push(h || `column ${j + 1}`);
-    index.push(j);
-  });
-  if (names.length === 0) throw new EngineError("input", "No column of numbers was found. Each series needs a column of numbers under its name.");
-  let pick = names.map((_, k) => k);
-  if (only) {
-    pick = parseSeriesList(only, names).map((n) => {
-      const k = names.indexOf(n);
-      if (k < 0) {
-        const hint = names.find((x) => x.toLowerCase() === n.toLowerCase());
-        throw new EngineError("input", `--series: no series named "${n}"${hint ? ` (did you mean "${hint}"? names are matched exactly)` : ""}. Series in this file: ${names.join(", ")}.`);
-      }
-      return k;
-    });
-  }
-  let labels: string[] | null = null;
-  return {
-    names: pick.map((k) => names[k]),
-    column: (j) => t.cells(index[pick[j]]),
-    get labelColumn() {
-      if (labelIndex < 0) return null;
-      labels ??= t.labels(labelIndex);
-      return { name: t.header[labelIndex] || `column ${labelIndex + 1}`, values: labels };
-    },
-    where: t.where,
+    header: t.header,
     rows: t.rows,
-    notes: t.notes,
+    cells,
+    labels: (j) => cells(j).map((x) => (x === null || x === undefined ? "" : String(x))),
+    isLabel: (j) => !t.names.includes(t.header[j]),
+    where: t.where,
+    notes: [...sourceNotes, ...t.reading.notes],
   };
 }
 

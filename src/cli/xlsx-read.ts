@@ -1,12 +1,13 @@
-// Reading a worksheet of an .xlsx workbook as a table of cells, with the same series rules as CSV:
-// numbers are numbers and dates are dates as the workbook stores them (no locale guessing), the
-// first row of the range names the columns (a merged header over two rows is joined), formulas
-// are read by their saved results, merged cells below the header hold their value once.
+// Reading a worksheet of an .xlsx workbook into the shared reader's columns (src/io), so a sheet
+// goes through the same reader as a CSV file (period column, calendar, Total rows, number formats
+// of text cells): numbers are numbers and dates are dates as the workbook stores them (no locale
+// guessing), the first row of the range names the columns (a merged header over two rows is
+// joined), formulas are read by their saved results, merged cells below the header hold their
+// value once.
 import * as fs from "fs";
 import { Cell, ValueType, Workbook, Worksheet } from "exceljs";
 import { EngineError, RawCell } from "../engine";
-import { checkHeader, LABEL_NAMES } from "./csv";
-import { CellTable } from "./table";
+import { CsvColumns } from "../io";
 
 /** A cell range in A1 notation, as row and column numbers (1-based, inclusive). */
 export interface CellRange {
@@ -122,12 +123,20 @@ function someOf(xs: string[], n = 3): string {
   return xs.length <= n ? xs.join(", ") : `${xs.slice(0, n).join(", ")} and ${xs.length - n} more`;
 }
 
+/** A worksheet read into the shared reader's columns, and how its cells were read. */
+export interface XlsxTable {
+  /** The sheet's columns (read them with src/io's readTable). */
+  columns: CsvColumns;
+  /** Merged cells, formulas without results, … */
+  notes: string[];
+}
+
 /**
  * Reads one worksheet of an .xlsx workbook (the first, or --sheet NAME; the used range, or --range)
- * as a CellTable. Refuses encrypted, old-format or damaged files with what to do.
- * @example (await readXlsxTable("book.xlsx", { sheet: "Sales" })).header // ["month", "Harbour Street", …]
+ * into the shared reader's columns. Refuses encrypted, old-format or damaged files with what to do.
+ * @example (await readXlsxTable("book.xlsx", { sheet: "Sales" })).columns.header // ["month", "Harbour Street", …]
  */
-export async function readXlsxTable(file: string, options: { sheet?: string; range?: string } = {}): Promise<CellTable> {
+export async function readXlsxTable(file: string, options: { sheet?: string; range?: string } = {}): Promise<XlsxTable> {
   checkPackage(file);
   const range = options.range === undefined ? null : parseRange(options.range);
   const wb = new Workbook();
@@ -178,41 +187,27 @@ export async function readXlsxTable(file: string, options: { sheet?: string; ran
   if (merges.length > 0 || headerRows.length > 1) {
     notes.push(`Sheet "${name}": the header ${headerRows.length > 1 ? `spans rows ${headerRows[0]}–${headerRows[headerRows.length - 1]} (merged cells)` : "has merged cells"}; columns read as ${someOf(rawNames.filter(Boolean).map((n) => `"${n}"`), 6)}. Use --range to start at a single header row if that is not what you meant.`);
   }
-  const header = checkHeader(rawNames);
-
   const first = headerRows[headerRows.length - 1] + 1;
   const rows = Math.max(0, r.bottom - first + 1);
   if (rows === 0) throw new EngineError("input", `Sheet "${name}" has a header row but no values below it${range ? ` in --range ${options.range}` : ""}.`);
-  const columns: RawCell[][] = Array.from({ length: width }, () => []);
-  const dates = new Array<number>(width).fill(0);
-  const numeric = new Array<number>(width).fill(0);
-  const nonBlank = new Array<number>(width).fill(0);
+  // Rows are named by the sheet's row numbers; the header row's number stands for the header.
+  const columns = new CsvColumns(true, ",", "workbook", (row) => `row ${row} of sheet "${name}"`);
+  columns.add(rawNames, r.top);
   let mergedData = 0;
   for (let row = first; row <= r.bottom; row++) {
     const wsRow = ws.getRow(row);
+    const cells: (number | string | null)[] = [];
     for (let k = 0; k < width; k++) {
       const c = wsRow.getCell(r.left + k);
       if (c.type === ValueType.Merge) mergedData++;
       const x = readCell(c, noResult);
-      columns[k].push(x.cell);
-      if (x.cell !== null) nonBlank[k]++;
-      if (x.date !== null) dates[k]++;
-      else if (typeof x.cell === "number") numeric[k]++;
+      cells.push(typeof x.cell === "number" || typeof x.cell === "string" ? x.cell : x.cell === null || x.cell === undefined ? null : String(x.cell));
     }
+    columns.addCells(cells, row);
   }
   if (noResult.length > 0) {
     notes.push(`Sheet "${name}": ${noResult.length} formula cell${noResult.length === 1 ? " has" : "s have"} no saved result (${someOf(noResult)}); read as blank. Open the workbook in a spreadsheet program and save it (so the results are stored), or type the values in.`);
   }
   if (mergedData > 0) notes.push(`Sheet "${name}": ${mergedData} cell${mergedData === 1 ? " is" : "s are"} part of a merged block below the header; a merged block's value is read once, in its first cell, and its other cells as blank.`);
-  const where = (i: number): string => `row ${first + i} of sheet "${name}"`;
-  return {
-    header,
-    rows,
-    cells: (j) => columns[j],
-    labels: (j) => columns[j].map((x) => (x === null ? "" : String(x))),
-    // Dates or mostly text are labels; so is a first column named period, date, month, year, ….
-    isLabel: (j) => (j === 0 && LABEL_NAMES.test(header[j])) || (nonBlank[j] > 0 && (dates[j] * 2 >= nonBlank[j] || numeric[j] * 2 < nonBlank[j])),
-    where,
-    notes,
-  };
+  return { columns: columns.finish(), notes };
 }

@@ -1,6 +1,7 @@
 // The only Excel.run code of the pane: read the selection, write the FW.FAN formula and,
 // where the API allows, a native fan chart next to it.
 import { isHeaderRow, RawCell } from "../engine";
+import { findDateColumn } from "../io";
 import type { PaneData } from "./view-model";
 import { formatWhole } from "./locale";
 import { describeInTheWay, fanWritePlan, InTheWay, occupiedCells } from "./write-plan";
@@ -32,22 +33,27 @@ export async function readSelection(): Promise<PaneData> {
       throw new Error(`The selection ${range.address} has ${formatWhole(range.rowCount)} rows × ${range.columnCount} columns (${formatWhole(n)} cells); the pane previews up to ${formatWhole(MAX_SELECTION_CELLS)} cells. Select fewer rows or columns; the FW functions in cells take any size.`);
     }
     if (n <= READ_PIECE_CELLS) {
-      range.load(["values", "valueTypes"]);
+      range.load(["values", "valueTypes", "numberFormat"]);
       await ctx.sync();
-      return selectionData(range.address, range.values as unknown[][], range.valueTypes as string[][]);
+      return selectionData(range.address, range.values as unknown[][], range.valueTypes as string[][], (range.numberFormat as unknown as string[][] | undefined) ?? null);
     }
     // Large selections are read in pieces of whole rows, one request each, so no response passes
     // Excel on the web's 5 MB limit (see READ_PIECE_CELLS).
     const values: unknown[][] = [];
     const types: string[][] = [];
+    const formats: string[][] = [];
+    let haveFormats = true;
     for (const [start, rows] of readPieces(range.rowCount, range.columnCount)) {
       const piece = range.getCell(start, 0).getResizedRange(rows - 1, range.columnCount - 1);
-      piece.load(["values", "valueTypes"]);
+      piece.load(["values", "valueTypes", "numberFormat"]);
       await ctx.sync();
       for (const row of piece.values as unknown[][]) values.push(row);
       for (const row of piece.valueTypes as string[][]) types.push(row);
+      const f = piece.numberFormat as unknown as string[][] | undefined;
+      if (f) for (const row of f) formats.push(row);
+      else haveFormats = false;
     }
-    return selectionData(range.address, values, types);
+    return selectionData(range.address, values, types, haveFormats ? formats : null);
   });
 }
 
@@ -59,7 +65,8 @@ export async function readSelection(): Promise<PaneData> {
  * chunking, https://learn.microsoft.com/office/dev/add-ins/excel/performance). A number with its
  * type costs at most about 40 bytes of JSON ("-1.2345678901234567e-308","Double"), so 20,000 cells
  * are under 1 MB (test/taskpane/excel-io.test.ts measures the worst case), leaving room for text
- * averaging over 200 characters a cell before a piece could reach 5 MB.
+ * averaging over 200 characters a cell before a piece could reach 5 MB. The number formats are read
+ * too (a date column is told by its format); a format of up to 100 characters adds at most 2 MB.
  */
 export const READ_PIECE_CELLS = 20000;
 
@@ -75,8 +82,14 @@ export function readPieces(rowCount: number, columnCount: number): [number, numb
   return out;
 }
 
-/** Turns a range's values and value types into the pane's columns (pure, for tests). */
-export function selectionData(address: string, values: unknown[][], types: string[][]): PaneData {
+/**
+ * Turns a range's values, value types and number formats into the pane's columns (pure, for tests).
+ * A column of dates (numbers shown with a date format, or period labels as text) is not a series:
+ * it labels the rows, gives the period (monthly 12, quarterly 4, …) and the forecast's dates. When
+ * the rows are not in time order, skip a period or hold a Total row, the data carries a `problem`
+ * saying what to change (the FW functions read the cells as they stand).
+ */
+export function selectionData(address: string, values: unknown[][], types: string[][], formats: string[][] | null = null): PaneData {
   const cells: RawCell[][] = values.map((row, i) => row.map((v, j) => {
     const t = types[i][j];
     if (t === "Empty") return null;
@@ -87,13 +100,25 @@ export function selectionData(address: string, values: unknown[][], types: strin
   const header = cells.length > 1 && isHeaderRow(cells[0]);
   const body = header ? cells.slice(1) : cells;
   const width = cells[0]?.length ?? 0;
-  return {
-    source: `Selection ${address}`,
-    address,
-    names: Array.from({ length: width }, (_, j) => (header && typeof cells[0][j] === "string" ? String(cells[0][j]) : `column ${j + 1}`)),
-    columns: Array.from({ length: width }, (_, j) => body.map((r) => r[j])),
-    headerRows: header ? 1 : 0,
-  };
+  const names = Array.from({ length: width }, (_, j) => (header && typeof cells[0][j] === "string" ? String(cells[0][j]) : `column ${j + 1}`));
+  const columns = Array.from({ length: width }, (_, j) => body.map((r) => r[j]));
+  const data: PaneData = { source: `Selection ${address}`, address, names, columns, headerRows: header ? 1 : 0 };
+  const firstRow = (Number(/(\d+)(?::|$)/.exec(address.split("!").pop() ?? "")?.[1]) || 1) + (header ? 1 : 0);
+  const dates = width > 1 ? findDateColumn(body, formats ? (header ? formats.slice(1) : formats) : null, firstRow, (j) => names[j]) : null;
+  if (!dates) return data;
+  const keep = names.map((_, j) => j).filter((j) => j !== dates.column);
+  data.names = keep.map((j) => names[j]);
+  data.columns = keep.map((j) => columns[j]);
+  data.rangeColumns = keep;
+  if (dates.problem) data.problem = dates.problem;
+  else if (dates.calendar) {
+    const cal = dates.calendar;
+    data.rowLabels = cal.labels;
+    data.period = cal.period;
+    data.nextLabel = cal.next;
+    data.notes = [`Dates in "${names[dates.column]}": ${cal.frequency}, ${cal.labels[0]} to ${cal.labels[cal.labels.length - 1]}; period ${cal.period}.`];
+  }
+  return data;
 }
 
 /** The address of one column of a range address ("Sheet1!B2:H74", column 2 → "Sheet1!D2:D74"). */

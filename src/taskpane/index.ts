@@ -199,7 +199,7 @@ function renderFan(): void {
     renderTable(view);
     updateSlider(view.lambdaRange);
     if (state.inExcel && state.data.address) {
-      $("fw-formula").textContent = fanFormula(columnAddress(state.data.address, c.series), { ...c, levels: c.levels });
+      $("fw-formula").textContent = fanFormula(columnAddress(state.data.address, state.data.rangeColumns?.[c.series] ?? c.series), { ...c, levels: c.levels });
     }
   }
   state.lastRenderMs = performance.now() - t0;
@@ -251,7 +251,7 @@ function renderAll(): void {
   const t0 = performance.now();
   const period = Number($<HTMLInputElement>("fw-period").value) || 1;
   const problem = selectionProblem(state.data);
-  $("fw-source").textContent = problem ? `${state.data.source}: ${problem}` : state.data.source;
+  $("fw-source").textContent = problem ? `${state.data.source}: ${problem}` : [state.data.source, ...(state.data.notes ?? [])].join(" ");
   renderSeriesSelect();
   renderAuditSelects();
   renderPublishedSelects();
@@ -574,8 +574,10 @@ function wire(): void {
   $("fw-paste-go").addEventListener("click", () => {
     const msg = $("fw-paste-msg");
     try {
-      state.data = pastedData($<HTMLTextAreaElement>("fw-paste").value);
+      const decimal = $<HTMLSelectElement>("fw-paste-decimal").value;
+      state.data = pastedData($<HTMLTextAreaElement>("fw-paste").value, decimal === "," || decimal === "." ? decimal : undefined);
       state.series = 0;
+      usePeriodOfData();
       msg.textContent = `Using the pasted table: ${state.data.names.length} series.`;
       renderAll();
     } catch (e) {
@@ -618,7 +620,7 @@ async function writeToSheet(overwrite = false): Promise<void> {
     return;
   }
   try {
-    const formula = fanFormula(columnAddress(state.data.address, c.series), c);
+    const formula = fanFormula(columnAddress(state.data.address, state.data.rangeColumns?.[c.series] ?? c.series), c);
     // Checks what is in the way first and asks before overwriting (excel-io.ts, write-plan.ts).
     const r = await writeFan($<HTMLInputElement>("fw-target").value.trim(), formula, c.horizon, parseLevels(c.levels), $<HTMLInputElement>("fw-with-chart").checked, { overwrite });
     if (!r.written) {
@@ -630,6 +632,11 @@ async function writeToSheet(overwrite = false): Promise<void> {
   } catch (e) {
     msg.textContent = `Could not write to the sheet: ${e instanceof Error ? e.message : String(e)}`;
   }
+}
+
+/** When the data's dates imply a period (monthly 12, quarterly 4, …), the period box takes it. */
+function usePeriodOfData(): void {
+  if (state.data.period !== undefined) $<HTMLInputElement>("fw-period").value = String(state.data.period);
 }
 
 function standalone(): void {
@@ -648,6 +655,7 @@ async function inExcel(): Promise<void> {
       applyOfficeTheme(document.documentElement, Office.context.officeTheme); // the user may have changed it meanwhile
       state.data = await readSelection();
       if (state.series >= state.data.columns.length) state.series = 0;
+      usePeriodOfData();
       renderAll();
     } catch (e) {
       $("fw-source").textContent = e instanceof Error ? e.message : String(e);

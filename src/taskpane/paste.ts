@@ -1,30 +1,42 @@
-// The stand-alone pane's paste box: tab- or comma-separated text copied from any spreadsheet.
-import { EngineError } from "../engine";
-import { csvSeries, parseCsv } from "../cli/csv";
+// The stand-alone pane's paste box: a table copied from any spreadsheet (tab-separated), or CSV text
+// with commas or semicolons; read by the shared reader (src/io) like a file.
+import { EngineError, isEngineError } from "../engine";
+import { DecimalMark, ParseOptions, readCsvText, ReadOptions, SeriesTable } from "../io";
 import type { PaneData } from "./view-model";
 
 /**
- * Reads pasted text: tabs if the first line has any (a spreadsheet copy), else commas. The first
- * row names the columns; a column of labels (dates, periods) labels the rows.
+ * Reads pasted text: the delimiter detected (tab, semicolon or comma), number formats and dates read
+ * as for a file. The first row names the columns; a column of period labels labels the rows, puts
+ * them in time order and gives the period and the future periods' labels. A table whose periods
+ * repeat (a forecast log: one row per forecast) is read in the order pasted, for the audit; it
+ * carries the repeat as its `problem`, so it is not forecast as one series.
  * @example pastedData("month\tsales\n2024-01\t5\n2024-02\t6").names // ["sales"]
  */
-export function pastedData(text: string): PaneData {
+export function pastedData(text: string, decimal?: DecimalMark): PaneData {
   const trimmed = text.replace(/\s+$/, "");
   if (trimmed === "") throw new EngineError("input", "Paste a table first: a header row naming the columns, then one row per period.");
-  const firstLine = trimmed.split(/\r?\n/)[0];
-  const tab = firstLine.includes("\t");
-  // Tab-separated: turn it into CSV by quoting each field (fields may contain commas, e.g. "12,500").
-  const csv = tab
-    ? trimmed.split(/\r?\n/).map((l) => l.split("\t").map((f) => `"${f.replace(/"/g, '""')}"`).join(",")).join("\n")
-    : trimmed;
-  const table = parseCsv(csv);
-  const s = csvSeries(table);
+  const options: ParseOptions & ReadOptions = { decimal, decimalFix: (m) => `Decimal mark: ${m === "," ? "comma" : "point"}`, delimiterFix: (d) => `a first line sep=${d === "tab" ? "\\t" : d}, or copy the cells straight from the sheet (tabs)` };
+  let s: SeriesTable;
+  let problem: string | undefined;
+  try {
+    s = readCsvText(trimmed, options);
+  } catch (e) {
+    if (!isEngineError(e) || !/ appears twice in /.test(e.message)) throw e;
+    s = readCsvText(trimmed, { ...options, calendar: false });
+    problem = `${e.message} (Read in the order pasted, for an audit of a forecast log.)`;
+  }
+  const columns = s.names.map((_, j) => s.column(j));
+  const labelNames = s.header.filter((h) => !s.names.includes(h));
   return {
-    source: `Pasted table (${s.names.length} series × ${table.rows} rows)`,
+    source: `Pasted table (${s.names.length} series × ${s.rows} rows)`,
     names: s.names,
-    columns: s.names.map((_, j) => s.column(j)),
+    columns,
     rowLabels: s.labelColumn ? s.labelColumn.values : undefined,
-    labelColumns: table.header.map((h, j) => ({ h, j })).filter(({ j }) => table.isLabel(j)).map(({ h, j }) => ({ name: h || `column ${j + 1}`, values: table.labels(j) })),
+    labelColumns: labelNames.map((h) => ({ name: h, values: (s.columnNamed(h) ?? []).map((x) => (x === null || x === undefined ? "" : String(x))) })),
     headerRows: 1,
+    period: s.calendar ? s.period : undefined,
+    nextLabel: s.next ?? undefined,
+    notes: s.reading.notes,
+    ...(problem ? { problem } : {}),
   };
 }

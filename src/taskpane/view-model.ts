@@ -19,6 +19,16 @@ export interface PaneData {
   address?: string;
   /** 1 when the first row of the range was a header. */
   headerRows: number;
+  /** The period the row labels' dates imply (monthly 12, quarterly 4, …), when they are dates. */
+  period?: number;
+  /** The label h periods after the last row ("2026-01"), when the row labels are dates. */
+  nextLabel?: (h: number) => string;
+  /** How the data was read (rows left out, order, skipped periods), in sentences. */
+  notes?: string[];
+  /** The range column of each series (a date column in the selection is not a series). */
+  rangeColumns?: number[];
+  /** Why this data cannot be forecast as selected, with the fix (a selection whose dates are out of order, say). */
+  problem?: string;
 }
 
 /** One row of the series-check table. */
@@ -84,6 +94,7 @@ const WHAT_TO_SELECT = "Select the data: one column per series, oldest first, it
  * @example selectionProblem({ source: "x", names: ["column 1"], columns: [["Revenue"]], headerRows: 0 }) // 'The selection is one cell holding text ("Revenue"). Select the data: …'
  */
 export function selectionProblem(data: PaneData): string | null {
+  if (data.problem) return data.problem;
   const cells = data.columns.flat();
   if (data.columns.length === 0 || cells.length === 0) return `Nothing is selected. ${WHAT_TO_SELECT}`;
   if (cells.some((c) => typeof c === "number")) {
@@ -184,7 +195,8 @@ export function fanView(data: PaneData, c: FanControls): FanView {
     });
     const shown = Math.min(history.length, Math.max(24, 3 * c.horizon));
     const hist = history.slice(-shown);
-    const lab = [...labels.slice(-shown), ...fan.rows.map((r) => `+${r.h}`)];
+    const next = data.nextLabel;
+    const lab = [...labels.slice(-shown), ...fan.rows.map((r) => (next ? next(r.h) : `+${r.h}`))];
     const svg = fanChartSvg({ title: `${data.names[c.series]}: ${f.method}, λ ${f.lambda === null ? "none" : f.lambda.toFixed(2)}`, history: hist, labels: lab, fan, width: 300, height: 220 });
     const info = new Map(describeForecaster(f));
     const aicc = info.get("AICc");

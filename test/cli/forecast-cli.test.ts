@@ -30,7 +30,7 @@ describe("fanwise fan", () => {
     const r = runCli(["fan", csv, "--horizon", "12", "--period", "12"]);
     expect(r.code).toBe(3); // two flagged series failed, the other six computed
     const lines = r.out.trim().split("\n");
-    expect(lines[0]).toBe("series,h,method,lambda,mean,median,low80,high80,low95,high95,note");
+    expect(lines[0]).toBe("series,h,period,method,lambda,mean,median,low80,high80,low95,high95,note");
     const bySeries = new Map<string, string[][]>();
     for (const l of lines.slice(1)) {
       const name = l.startsWith('"') ? l.slice(1, l.indexOf('"', 1)) : l.split(",")[0];
@@ -40,7 +40,7 @@ describe("fanwise fan", () => {
       const rows = bySeries.get(name) ?? [];
       expect(rows).toHaveLength(12);
       for (const row of rows) {
-        const [mean, median, lo80, hi80, lo95, hi95] = row.slice(4, 10).map(Number);
+        const [mean, median, lo80, hi80, lo95, hi95] = row.slice(5, 11).map(Number);
         expect(lo95).toBeLessThanOrEqual(lo80);
         expect(lo80).toBeLessThanOrEqual(median);
         expect(median).toBeLessThanOrEqual(hi80);

@@ -64,7 +64,7 @@ describe("malformed files: one line on stderr, exit 1", () => {
   });
   test("unknown flags, a flag without its value, a single-dash option, an unknown command", () => {
     const f = file("six.csv", SIX);
-    expectOneLineError(runCli(["screen", f, "--frobnicate"]), /Unknown option --frobnicate\. Options here: --period, .*--json/);
+    expectOneLineError(runCli(["screen", f, "--frobnicate"]), /Unknown option --frobnicate\. Options here: --period, .*--delimiter, --decimal, .*--json/);
     expectOneLineError(runCli(["fan", f, "--horizon"]), /--horizon needs a value/);
     expectOneLineError(runCli(["fan", f, "-h", "3"]), /Unknown option -h\. Options start with two dashes/);
     expectOneLineError(runCli(["forecast", f]), /unknown command "forecast"/);

@@ -45,8 +45,13 @@ beforeAll(async () => {
   await wb.xlsx.writeFile(BOOK);
 });
 
-/** A fan JSON without the period labels (a CSV read by the command line keeps none) and places in messages. */
-function numbersOnly(j: { series: Record<string, { steps?: { period?: string }[]; error?: string }> }): unknown {
+/** A fan JSON without the period labels, the places in messages, and what differs in how the file was read (its delimiter, the dates' written form). */
+function numbersOnly(j: { reading?: { delimiter?: string; delimiterFrom?: string; dates?: { format?: string } | null }; series: Record<string, { steps?: { period?: string }[]; error?: string }> }): unknown {
+  if (j.reading) {
+    delete j.reading.delimiter;
+    delete j.reading.delimiterFrom;
+    if (j.reading.dates) delete j.reading.dates.format;
+  }
   for (const s of Object.values(j.series)) {
     for (const st of s.steps ?? []) delete st.period;
     if (s.error) s.error = s.error.replace(/line \d+|row \d+ of sheet "Sales"/g, "PLACE");
@@ -62,7 +67,7 @@ describe("reading .xlsx", () => {
     expect(x.code).toBe(3); // Old Quay has a zero month: not Box-Cox ready, in both
     expect(c.code).toBe(3);
     const xj = JSON.parse(x.out);
-    expect(xj.series["Harbour Street"].steps[0].period).toBe("2026-01-01"); // the month after the last date
+    expect(xj.series["Harbour Street"].steps[0].period).toBe("2026-01"); // the month after the last date (first-of-month date cells read as a monthly calendar, labelled as the CSV's are)
     expect(numbersOnly(xj)).toEqual(numbersOnly(JSON.parse(c.out)));
     expect(x.err).toMatch(/Old Quay has 1 zero \(minimum 0, first at row 39 of sheet "Sales"\)/); // 2023-02 is the 38th month, under a header in row 1
     const sx = await run(["screen", BOOK, "--period", "12", "--json"]);
@@ -229,8 +234,8 @@ describe("fanwise chart", () => {
     for (const l of [50, 80, 95]) expect(byClass(`band band-${l}`)[0].$.d).toMatch(/ Z$/);
     expect(svg).not.toMatch(/<polyline|<polygon/);
     const texts: string[] = (doc.svg.text ?? []).map((t: { _?: string } | string) => (typeof t === "string" ? t : t._ ?? ""));
-    expect(texts).toContain("2025-12-01"); // the last month of history, at the forecast origin
-    expect(texts).toContain("2026-12-01"); // the last forecast month
+    expect(texts).toContain("2025-12"); // the last month of history, at the forecast origin (monthly calendar labels)
+    expect(texts).toContain("2026-12"); // the last forecast month
     expect(pointsOf(pathD("mean"))).toHaveLength(13); // the origin and 12 steps
   });
 

@@ -26,6 +26,7 @@ test("reads a selection with a header row, blanks, text and an error cell as nam
           columnCount: 2,
           values: [["Harbour Street", "Millbrook"], [100, ""], [110, "closed"], ["", 130], [121, "#N/A"]],
           valueTypes: [["String", "String"], ["Double", "Empty"], ["Double", "String"], ["Empty", "Double"], ["Double", "Error"]],
+          numberFormat: [["General", "General"], ["#,##0", "General"], ["#,##0", "General"], ["General", "#,##0"], ["#,##0", "General"]],
         },
         getSelectedRange: function () {
           return this.range;
@@ -48,7 +49,7 @@ test("reads a selection with a header row, blanks, text and an error cell as nam
 
 test("a selection without a header gets column names", async () => {
   const mock = new OfficeMockObject({
-    context: { workbook: { range: { address: "A1:A3", rowCount: 3, columnCount: 1, values: [[1], [2], [3]], valueTypes: [["Double"], ["Double"], ["Double"]] }, getSelectedRange: function () { return this.range; } } },
+    context: { workbook: { range: { address: "A1:A3", rowCount: 3, columnCount: 1, values: [[1], [2], [3]], valueTypes: [["Double"], ["Double"], ["Double"]], numberFormat: [["General"], ["General"], ["General"]] }, getSelectedRange: function () { return this.range; } } },
     run: async function (callback: (c: unknown) => Promise<unknown>) { return callback(this.context); },
   }) as Any;
   g.Excel = mock;

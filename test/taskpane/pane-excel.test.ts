@@ -41,9 +41,10 @@ const FAKE_OFFICE = `(() => {
     };
     Object.defineProperty(r, "values", { get() { window.valuesRead.push(spec.address); return g.values; } });
     Object.defineProperty(r, "valueTypes", { get() { return g.types; } });
+    Object.defineProperty(r, "numberFormat", { get() { return spec.formats; } });
     // A piece of whole rows (large selections are read in pieces): getCell(i, 0).getResizedRange(rows - 1, cols - 1).
     r.getCell = (i) => ({
-      getResizedRange: (dr, dc) => rangeOf({ address: spec.address + "#rows" + i + "-" + (i + dr), values: g.values.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)), types: g.types.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)) }),
+      getResizedRange: (dr, dc) => rangeOf({ address: spec.address + "#rows" + i + "-" + (i + dr), values: g.values.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)), types: g.types.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)), formats: spec.formats ? spec.formats.slice(i, i + dr + 1).map((row) => row.slice(0, dc + 1)) : undefined }),
     });
     return r;
   };
@@ -210,6 +211,25 @@ test("whole columns are cut to the data; an oversized selection is refused with 
   await page.waitForFunction(() => /previews up to/.test(document.getElementById("fw-source")?.textContent ?? ""), undefined, { timeout: 30000 });
   expect(await page.textContent("#fw-source")).toBe("The selection Sheet1!A1:AX5001 has 5,001 rows × 50 columns (250,050 cells); the pane previews up to 200,000 cells. Select fewer rows or columns; the FW functions in cells take any size.");
   expect(await page.evaluate(() => (window as unknown as { valuesRead: string[] }).valuesRead)).toEqual(["Sheet1!A1:D121"]);
+  expect(errors).toEqual([]);
+  expect(env.offSite).toEqual([]);
+  await page.close();
+});
+
+test("a date column (cells with a date format) labels the rows: period 12, the axis ends on a date, the formula reads the series' column", async () => {
+  // AirPassengers 1958–1960 (R datasets) under a column of first-of-month dates shown as mmm-yy.
+  const air = [340, 318, 362, 348, 363, 435, 491, 505, 404, 359, 310, 337, 360, 342, 406, 396, 420, 472, 548, 559, 463, 407, 362, 405, 417, 391, 419, 461, 472, 535, 622, 606, 508, 461, 390, 432];
+  const serial = (i: number): number => Math.round((Date.UTC(1958, i, 1) - Date.UTC(1899, 11, 30)) / 86400000);
+  const values = [["Month", "Passengers"], ...air.map((v, i) => [serial(i), v])];
+  const types = values.map((r, i) => r.map(() => (i === 0 ? "String" : "Double")));
+  const formats = values.map((_, i) => (i === 0 ? ["General", "General"] : ["mmm-yy", "#,##0"]));
+  const { page, errors } = await openWith({ address: "Sheet1!A1:B37", values, types, formats });
+  await page.waitForFunction(() => document.querySelectorAll("#fw-chart svg").length > 0, undefined, { timeout: 30000 });
+  expect(await page.textContent("#fw-source")).toMatch(/^Selection Sheet1!A1:B37 Dates in "Month": monthly, 1958-01 to 1960-12; period 12\./);
+  expect(await page.locator("#fw-series option").count()).toBe(1);
+  expect(await page.inputValue("#fw-period")).toBe("12");
+  expect(await page.innerHTML("#fw-chart")).toContain("1961-");
+  expect(await page.textContent("#fw-formula")).toMatch(/^=FW\.FAN\(Sheet1!B1:B37,/);
   expect(errors).toEqual([]);
   expect(env.offSite).toEqual([]);
   await page.close();

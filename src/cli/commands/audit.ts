@@ -8,11 +8,10 @@ import { auditLog, calibrationTable, EngineError, isEngineError, POOLED, RawCell
 import type { AuditLog, Calibration } from "../../engine";
 import { calibrationChartSvg, coveragePoints, hitStripSvg } from "../../chart";
 import type { CalibrationPoint } from "../../chart";
-import { readCsvFile } from "../csv-file";
 import { Command, IO_OPTIONS } from "../command";
 import { emit } from "../output";
-import { fileArgument, readTable } from "../series-input";
-import { CellTable, csvTable } from "../table";
+import { fileArgument, readInputTable } from "../series-input";
+import { CellTable, cellTable } from "../table";
 import { auditJson, rowJson } from "../audit-json";
 import { auditReportHtml } from "../audit-report";
 
@@ -56,8 +55,10 @@ export const auditCommand: Command = {
   examples: [EXAMPLE, "fanwise audit log.csv --actual actual --lower lower80,lower95 --upper upper80,upper95 --level 80,95 --by series --horizon-col h --report audit.html"],
   async run(p, io) {
     const file = fileArgument(p, EXAMPLE);
-    // CSV keeps its label text (dates for the hit strip's axis); workbooks through the shared reader
-    const t: CellTable = path.extname(file).toLowerCase() === ".xlsx" ? await readTable(p, io, EXAMPLE) : csvTable(readCsvFile(file, true));
+    // CSV and workbooks alike through the shared reader, rows in the file's order (a forecast log
+    // repeats periods, so no calendar); label text is kept (dates for the hit strip's axis).
+    const read = await readInputTable(p, io, EXAMPLE, { calendar: false, keepLabels: true });
+    const t: CellTable = cellTable(read.table, read.notes);
     const colIndex = (name: string, flag: string): number => {
       const j = t.header.indexOf(name);
       if (j < 0) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);

@@ -3,7 +3,7 @@
 import { backtest, isEngineError } from "../../engine";
 import { Command, COMMON, IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
-import { errorMessage, readSeriesFile, zerosOf } from "../series-input";
+import { errorMessage, periodOf, readSeriesFile, reportReading, zerosOf } from "../series-input";
 
 export const backtestCommand: Command = {
   name: "backtest",
@@ -26,9 +26,9 @@ export const backtestCommand: Command = {
   async run(p, io) {
     const H = p.int("horizon") as number;
     const level = p.num("level") ?? 95;
-    const period = p.int("period") ?? 1;
     const first = p.int("first");
     const data = await readSeriesFile(p, io);
+    const { period, periodFrom } = periodOf(p, data);
     const results = data.names.map((_, j) => {
       try {
         return { name: data.names[j], b: backtest(data.column(j), H, { method: p.value<string>("method") ?? "auto", lambda: p.value<string>("lambda") ?? "auto", transform: p.choice("transform"), shift: p.text("shift"), mean: p.choice("mean") ?? "auto", level, period, first, label: data.names[j], zeros: zerosOf(p) }) };
@@ -44,12 +44,12 @@ export const backtestCommand: Command = {
         for (const r of results) {
           series[r.name] = r.b
             ? {
-              horizon: r.b.horizon, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, origins: r.b.origins, originNote: r.b.originNote,
+              horizon: r.b.horizon, period, periodFrom, level: r.b.level, first: r.b.first, failures: r.b.failures, gapOrigins: r.b.gapOrigins, origins: r.b.origins, originNote: r.b.originNote,
               steps: r.b.rows.map((s) => ({ ...s, verdict: s.verdict ? `${s.verdict.headline}. ${s.verdict.text}` : null, headline: s.verdict?.headline ?? null, zone: s.verdict?.colour ?? null })),
             }
             : { error: r.error };
         }
-        return { series };
+        return { reading: data.reading, series };
       },
       header: ["series", "h", "origins", "coverage", "interval_score", "mean_error_of_mean", "mean_error_of_median", "kupiec_p", "independence_p", "zone", "verdict", "note"],
       rows: () => {
@@ -67,6 +67,7 @@ export const backtestCommand: Command = {
       cautions: [...data.notes, ...results.flatMap((r) => (r.b ? [] : [`${r.name}: ${r.error}`]))],
     });
     for (const r of results) if (!r.b) seriesError(io, r.name, r.error);
+    reportReading(io, p.has("json"), data);
     const ok = results.filter((r) => r.b).length;
     return exitCode(ok, results.length - ok);
   },

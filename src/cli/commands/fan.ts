@@ -4,7 +4,7 @@ import { Command, COMMON } from "../command";
 import { seriesChart } from "../fan-charts";
 import { ParsedArgs } from "../options";
 import { Io, emit, exitCode, seriesError } from "../output";
-import { atLines, chartHistory, errorMessage, fitAll, futureLabels, readSeriesFile } from "../series-input";
+import { atLines, errorMessage, fitAll, periodOf, readSeriesFile, reportReading, stepLabels } from "../series-input";
 import { SeriesData } from "../table";
 
 /** fan's own options, shared with the commands that draw or write a fan. */
@@ -18,6 +18,8 @@ export const FAN_OPTIONS = {
   transform: COMMON.transform,
   shift: COMMON.shift,
   zeros: COMMON.zeros,
+  delimiter: COMMON.delimiter,
+  decimal: COMMON.decimal,
   series: COMMON.series,
   sheet: COMMON.sheet,
   range: COMMON.range,
@@ -82,19 +84,20 @@ export const fanCommand: Command = {
   summary: "forecast each series: mean, median and intervals for every step ahead",
   args: "FILE",
   options: { ...FAN_OPTIONS, json: COMMON.json, digits: COMMON.digits, out: COMMON.out },
-  details: ["Rows carry the period (after h) when the file's period labels are plainly monthly or yearly."],
+  details: ["Rows carry the period of each step (after the series' last observed value) when the file has a column of dates or periods."],
   examples: ["fanwise fan sales.csv --horizon 12 --period 12", "fanwise fan book.xlsx --sheet Sales --horizon 12 --period 12 --out results.xlsx", "fanwise fan sales.csv --horizon 6 --method drift --lambda 0 --levels 50,80,95 --json"],
   async run(p, io) {
     const { data, fans, H } = await computeFans(p, io);
     const lv = fans.find((t) => t.table)?.table?.levels ?? [80, 95];
-    // HOOK (src/io period labels): the periods of each series' steps, after its last observed
-    // value's label, where the file's labels allow; otherwise rows keep only h.
+    // The periods of each series' steps (the calendar's labels after its last observed value);
+    // without a column of dates rows keep only h.
+    const { period, periodFrom } = periodOf(p, data);
     const periodsOf = new Map<string, string[]>();
     for (const t of fans) {
-      const future = futureLabels(chartHistory(data, t.j, 2).labels, H);
-      if (t.table && future[0] !== "+1") periodsOf.set(t.name, future);
+      const future = t.table ? stepLabels(data, t.j, H) : null;
+      if (future) periodsOf.set(t.name, future);
     }
-    const periods = periodsOf.size > 0;
+    const periods = data.calendar !== null;
     await emit(io, p, {
       command: "fan",
       json: () => {
@@ -109,6 +112,8 @@ export const fanCommand: Command = {
             sigma: tb.sigma,
             missing: t.missing,
             meanMethod: tb.meanMethod,
+            period,
+            periodFrom,
             steps: tb.rows.map((r, i) => ({
               h: r.h,
               ...(periodsOf.has(t.name) ? { period: periodsOf.get(t.name)?.[i] } : {}),
@@ -121,7 +126,7 @@ export const fanCommand: Command = {
             notes: tb.notes,
           };
         }
-        return { series };
+        return { reading: data.reading, series };
       },
       header: ["series", "h", ...(periods ? ["period"] : []), "method", "lambda", "mean", "median", ...lv.flatMap((l) => [`low${l}`, `high${l}`]), "note"],
       rows: () => {
@@ -142,6 +147,7 @@ export const fanCommand: Command = {
       charts: () => fans.filter((t) => t.table).map((t) => seriesChart(data, t.j, t.table as FanTable)),
     });
     for (const t of fans) if (!t.table) seriesError(io, t.name, t.error);
+    reportReading(io, p.has("json"), data);
     return exitCode(fans.filter((t) => t.table).length, fans.filter((t) => !t.table).length);
   },
 };

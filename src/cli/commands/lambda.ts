@@ -4,7 +4,7 @@
 import { EngineError, autoShift, fitLambda, fitLambdaForModel, LambdaChoice, parseShift, screenSeries } from "../../engine";
 import { Command, COMMON, IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
-import { cleanSeriesAtLines, errorMessage, lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
+import { cleanSeriesAtLines, errorMessage, lineOf, periodOf, readSeriesFile, reportReading, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const lambdaCommand: Command = {
   name: "lambda",
@@ -21,12 +21,12 @@ export const lambdaCommand: Command = {
   },
   examples: ["fanwise lambda sales.csv --period 12", "fanwise lambda sales.csv --method mle --json"],
   async run(p, io) {
-    const period = p.int("period") ?? 1;
     const method = p.choice("method") ?? "auto";
     const kind = (p.choice("transform") ?? "box-cox") as "box-cox" | "yeo-johnson";
     const shiftSpec = parseShift(p.text("shift"));
     const [lower, upper] = p.pair("bounds") ?? [undefined, undefined];
     const data = await readSeriesFile(p, io);
+    const { period, periodFrom } = periodOf(p, data);
     const results = data.names.map((_, j) => {
       try {
         const cells = data.column(j);
@@ -56,10 +56,10 @@ export const lambdaCommand: Command = {
         const series: Record<string, unknown> = {};
         results.forEach((x, j) => {
           series[data.names[j]] = x.ok
-            ? { lambda: x.r.lambda, method: x.r.method, interval: x.r.interval, loglik: x.r.loglik, readable: x.r.readable, onBound: x.r.onBound, window: x.r.window, n: x.r.n, missing: x.r.missing, note: x.r.note }
+            ? { lambda: x.r.lambda, method: x.r.method, interval: x.r.interval, loglik: x.r.loglik, readable: x.r.readable, onBound: x.r.onBound, window: x.r.window, n: x.r.n, missing: x.r.missing, note: x.r.note, period, periodFrom }
             : { error: x.message };
         });
-        return { series };
+        return { reading: data.reading, series };
       },
       header: ["series", "lambda", "method", "interval_low", "interval_high", "readable_lambda", "loglik", "on_bound", "note"],
       rows: () => results.map((x, j) => x.ok
@@ -70,6 +70,7 @@ export const lambdaCommand: Command = {
       cautions: [...data.notes, ...results.flatMap((x, j) => (x.ok ? [] : [`${data.names[j]}: ${x.message}`]))],
     });
     for (const [j, x] of results.entries()) if (!x.ok) seriesError(io, data.names[j], x.message);
+    reportReading(io, p.has("json"), data);
     return exitCode(results.filter((x) => x.ok).length, results.filter((x) => !x.ok).length);
   },
 };

@@ -3,7 +3,7 @@
 import { EngineError, publishedTotal, RawCell } from "../../engine";
 import { Command, COMMON, IO_OPTIONS } from "../command";
 import { emit } from "../output";
-import { readTable } from "../series-input";
+import { readInputTable } from "../series-input";
 
 const SYNOPSIS = "fanwise published FILE --median COL --lower COL --upper COL --level P.";
 const EXAMPLE = "fanwise published forecast.csv --median median --lower lower95 --upper upper95 --level 95";
@@ -31,12 +31,14 @@ export const publishedCommand: Command = {
   examples: [EXAMPLE, "fanwise published forecast.csv --median median --lower lower80 --upper upper80 --level 80 --lambda implied --dependence comonotone --json"],
   async run(p, io) {
     const level = p.num("level") as number;
-    const t = await readTable(p, io, EXAMPLE);
+    // Rows are read in file order (no calendar), with the shared reader's number formats.
+    const read = await readInputTable(p, io, EXAMPLE, { calendar: false });
+    const t = read.table;
     const col = (flag: string): RawCell[] => {
       const name = p.text(flag) as string;
-      const j = t.header.indexOf(name);
-      if (j < 0) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
-      return t.cells(j);
+      const cells = t.columnNamed(name);
+      if (cells === null) throw new EngineError("input", `No column named "${name}" (for --${flag}). Columns: ${t.header.join(", ")}.`);
+      return cells;
     };
     const cols = [col("median"), col("lower"), col("upper")];
     const flags = ["median", "lower", "upper"];
@@ -84,7 +86,7 @@ export const publishedCommand: Command = {
         ...res.months.map((mo, i) => [mo.h, lineNumber(lines[i]), mo.median, mo.lower, mo.upper, mo.mu, mo.sigma, mo.mean, mo.impliedLambda ?? "", "", "", "", "", "", "", ""]),
         ["total", "", res.median, "", "", "", "", res.mean, "", res.interval[0], res.interval[1], res.independent.interval[0], res.independent.interval[1], res.comonotone.interval[0], res.comonotone.interval[1], [`${res.level}% interval; dependence ${res.used}; λ ${res.lambda} (${res.lambdaSource}); mean ${res.meanMethod}.`, ...res.notes].join(" ")],
       ],
-      cautions: [...t.notes, ...res.notes],
+      cautions: [...read.notes, ...t.reading.notes, ...res.notes],
     });
     return 0;
   },

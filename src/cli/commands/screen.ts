@@ -2,7 +2,7 @@
 import { screenSeries } from "../../engine";
 import { Command, COMMON, IO_OPTIONS } from "../command";
 import { emit } from "../output";
-import { lineOf, readSeriesFile, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
+import { lineOf, periodOf, readSeriesFile, reportReading, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
 export const screenCommand: Command = {
   name: "screen",
@@ -11,8 +11,8 @@ export const screenCommand: Command = {
   options: { period: COMMON.period, zeros: COMMON.zeros, ...IO_OPTIONS },
   examples: ["fanwise screen sales.csv --period 12", "fanwise screen book.xlsx --sheet Sales --series \"Harbour Street\""],
   async run(p, io) {
-    const period = p.int("period") ?? 1;
     const data = await readSeriesFile(p, io);
+    const { period, periodFrom } = periodOf(p, data);
     const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI }));
     await emit(io, p, {
       command: "screen",
@@ -23,16 +23,17 @@ export const screenCommand: Command = {
             n: r.n, blanks: r.blanks, leadingBlanks: r.leadingBlanks, trailingBlanks: r.trailingBlanks, interiorGaps: r.interiorGaps, missing: r.missing, zerosIsolated: r.zerosIsolated,
             textCells: r.textCells, min: r.min, max: r.max, zeros: r.zeros, negatives: r.negatives, nonPositive: r.nonPositive,
             boxCoxUsable: r.boxCoxUsable, suggestedLambda: r.suggestedLambda, lambdaEstimate: r.lambda ? r.lambda.lambda : null,
-            lambdaMethod: r.lambda ? r.lambda.method : null, fix: r.fix, shift: r.shift, message: r.message,
+            lambdaMethod: r.lambda ? r.lambda.method : null, fix: r.fix, shift: r.shift, message: r.message, period, periodFrom,
           };
         });
-        return { series };
+        return { reading: data.reading, series };
       },
       header: ["series", "n", "blanks", "text_cells", "min", "nonpositive", "boxcox_usable", "suggested_lambda", "fix", "message"],
       rows: () => results.map((r, j) => [data.names[j], r.n, r.blanks, r.textCells, r.min, r.nonPositive, r.boxCoxUsable ? "yes" : "no", r.suggestedLambda === null ? "" : round(r.suggestedLambda), r.fix, r.message]),
       exact: ["min"],
       cautions: data.notes,
     });
+    reportReading(io, p.has("json"), data);
     return 0; // a check, not a computation: every series gets its verdict
   },
 };

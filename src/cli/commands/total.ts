@@ -4,9 +4,15 @@
 import { alignSeries, checkWindowStart, EngineError, fitForecast, Forecaster, isEngineError, totalAcross, totalForecast, AcrossTotal, MeanMethod } from "../../engine";
 import { Command, COMMON, IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
-import { atLines, errorMessage, fitAll, readSeriesFile, SeriesFit, zerosOf } from "../series-input";
+import { atLines, errorMessage, fitAll, periodOf, readSeriesFile, reportReading, SeriesFit, stepLabels, zerosOf } from "../series-input";
 import type { SeriesData } from "../table";
 import type { ParsedArgs } from "../options";
+
+/** The periods of a total's first and last step (the series' calendar labels after its last observed value), when the file has dates. */
+function windowPeriods(data: SeriesData, j: number, from: number, horizon: number): { firstPeriod?: string; lastPeriod?: string } {
+  const labels = stepLabels(data, j, horizon);
+  return labels ? { firstPeriod: labels[from - 1], lastPeriod: labels[horizon - 1] } : {};
+}
 
 interface AcrossRow { name: string; t?: AcrossTotal; error?: string; notes: string[] }
 
@@ -19,7 +25,7 @@ function acrossRow(p: ParsedArgs, data: SeriesData, fits: SeriesFit[], H: number
   try {
     const aligned = alignSeries(ok.map(({ j }) => data.column(j)), ok.map(({ x }) => x.name), 1);
     if (aligned.note) notes.push(atLines(aligned.note, data));
-    const period = p.int("period") ?? 1;
+    const { period } = periodOf(p, data);
     const fs: Forecaster[] = ok.map(({ x }, k) => (aligned.cut.includes(x.name)
       ? fitForecast(aligned.columns[k], { method: p.value<string>("method") ?? "auto", lambda: p.value<string>("lambda") ?? "auto", transform: p.choice("transform"), shift: p.text("shift"), period, label: x.name, zeros: zerosOf(p) })
       : (x.f as Forecaster)));
@@ -67,12 +73,13 @@ export const totalCommand: Command = {
     const paths = p.int("paths") ?? 10000;
     const mean = (p.choice("mean") ?? "auto") as MeanMethod;
     const data = await readSeriesFile(p, io);
+    const { period, periodFrom } = periodOf(p, data);
     const fits = fitAll(p, data);
-    const results = fits.map((x) => {
+    const results = fits.map((x, j) => {
       if (!x.f) return { name: x.name, error: x.error as string };
       try {
         const t = totalForecast(x.f, H, { level, seed, paths, mean, from });
-        return { name: x.name, method: x.f.method, lambda: x.f.lambda, transform: x.f.transform, missing: x.f.missing, t: { ...t, notes: t.notes.map((n) => atLines(n, data)) } };
+        return { name: x.name, j, method: x.f.method, lambda: x.f.lambda, transform: x.f.transform, missing: x.f.missing, t: { ...t, notes: t.notes.map((n) => atLines(n, data)) } };
       } catch (e) {
         if (isEngineError(e) && e.code === "input" && /horizon|level|paths|seed|^from/.test(e.message)) throw e;
         return { name: x.name, error: errorMessage(e) };
@@ -87,16 +94,18 @@ export const totalCommand: Command = {
         for (const r of results) {
           if (!("t" in r) || !r.t) { series[r.name] = { error: r.error }; continue; }
           series[r.name] = {
-            method: r.method, lambda: r.lambda, missing: r.missing, from: r.t.from, horizon: r.t.horizon,
+            method: r.method, lambda: r.lambda, missing: r.missing, from: r.t.from, horizon: r.t.horizon, period, periodFrom,
+            ...windowPeriods(data, r.j, r.t.from, r.t.horizon),
             transform: { kind: r.transform.kind, lambda: r.transform.lambda, shift: r.transform.shift },
             mean: r.t.mean.value, meanUsed: r.t.meanUsed, median: r.t.median, interval: r.t.interval, level: r.t.level,
             paths: r.t.paths, seed: r.t.seed, simulatedMean: r.t.simulatedMean, monteCarloError: r.t.monteCarloError,
             notes: [...(r.t.mean.note ? [r.t.mean.note] : []), ...r.t.notes],
           };
         }
-        if (!across) return { series };
+        if (!across) return { reading: data.reading, series };
         const a = across.t;
         return {
+          reading: data.reading,
           series,
           across: a ? {
             name: across.name, from: a.from, horizon: a.horizon, mean: a.mean, median: a.median, interval: a.interval, level: a.level,
@@ -120,6 +129,7 @@ export const totalCommand: Command = {
     });
     for (const r of results) if (!("t" in r) || !r.t) seriesError(io, r.name, r.error);
     if (across && !across.t) seriesError(io, across.name, across.error);
+    reportReading(io, p.has("json"), data);
     const ok = results.filter((r) => "t" in r && r.t).length;
     return exitCode(ok + (across?.t ? 1 : 0), results.length - ok + (across && !across.t ? 1 : 0));
   },
