@@ -63,12 +63,17 @@ export interface ProfilePoint {
   curvature: number;
 }
 
+/** A concave log-likelihood in one parameter with its first two derivatives (what the λ search needs). */
+export interface ProfileFunction {
+  at(lambda: number): ProfilePoint;
+}
+
 /**
  * A prepared Box-Cox profile log-likelihood ℓ(λ) with its first two derivatives (Box & Cox 1964),
  * for a positive, non-constant series already checked by the caller.
  * @example new BoxCoxProfile([1, 2, 3, 4, 5]).at(1).loglik // -1.7328679513998633 (= −(5/2)·ln 2)
  */
-export class BoxCoxProfile {
+export class BoxCoxProfile implements ProfileFunction {
   readonly n: number;
   /** Σ ln y. */
   readonly sumLog: number;

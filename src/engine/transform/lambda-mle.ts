@@ -2,7 +2,7 @@ import { EngineError } from "../errors";
 import { requireFinite } from "../_lib/check";
 import { chiSquareQuantile } from "../distribution/chisquare";
 import { isConstant, requirePositiveSeries } from "../series/positive";
-import { BoxCoxProfile, ProfilePoint } from "./box-cox-profile";
+import { BoxCoxProfile, ProfileFunction, ProfilePoint } from "./box-cox-profile";
 import { boundHit, checkLambdaBounds } from "./bounds";
 
 /** Smallest series the likelihood method accepts. */
@@ -85,8 +85,9 @@ const STEP_TOL = 1e-6;
  * bound is evaluated only when a step reaches it, and if ℓ′ there still points outward the maximum
  * is that bound. A step that leaves the bracket or does not shrink fast enough (less than half the
  * step before last, as in the safeguarded Newton of Press et al.'s rtsafe) is replaced by bisection.
+ * @example maximiseProfile(new BoxCoxProfile(airPassengers), -1, 2).lambda // 0.148023 (scipy.stats.boxcox_normmax: 0.14802263)
  */
-export function maximiseProfile(profile: BoxCoxProfile, lo: number, hi: number): ProfilePoint {
+export function maximiseProfile(profile: ProfileFunction, lo: number, hi: number): ProfilePoint {
   let a = lo;
   let b = hi;
   let aKnown = false;
@@ -131,7 +132,10 @@ export function maximiseProfile(profile: BoxCoxProfile, lo: number, hi: number):
   return P;
 }
 
-/** Halley steps for an interval end smaller than this end the search (the error after one is of the order of its cube). */
+/**
+ * Halley steps for an interval end smaller than this times the distance from λ̂ end the search (the
+ * error after one is of the order of its cube, measured on the profile's own scale).
+ */
 const END_TOL = 1e-4;
 
 /**
@@ -140,8 +144,9 @@ const END_TOL = 1e-4;
  * root of the quadratic approximation at λ̂;
  * outward doubling while ℓ is still above the cut and not falling; bisection once the end is
  * bracketed and a step leaves the bracket. Null when ℓ has not dropped that far 10 from λ̂.
+ * @example intervalEnd(profile, maximiseProfile(profile, -1, 2), 1.92073, +1) // 0.53371 for AirPassengers (scipy.stats.boxcox, alpha=0.05)
  */
-export function intervalEnd(profile: BoxCoxProfile, top: ProfilePoint, drop: number, dir: -1 | 1): number | null {
+export function intervalEnd(profile: ProfileFunction, top: ProfilePoint, drop: number, dir: -1 | 1): number | null {
   const MAX = 10;
   const cut = top.loglik - drop;
   const s = top.slope * dir;
@@ -169,7 +174,7 @@ export function intervalEnd(profile: BoxCoxProfile, top: ProfilePoint, drop: num
     const denom = 2 * qd * qd - q * P.curvature;
     const halley = d - (2 * q * qd) / denom;
     const newton = qd < 0 && denom > 0 ? halley : d - q / qd;
-    if (qd < 0 && Math.abs(newton - d) <= END_TOL && newton >= inner && newton <= outer) return top.lambda + dir * newton;
+    if (qd < 0 && Math.abs(newton - d) <= END_TOL * d && newton >= inner && newton <= outer) return top.lambda + dir * newton;
     let next: number;
     if (outer === Infinity) {
       next = newton > d ? Math.min(newton, MAX) : Math.min(2 * d, MAX);
