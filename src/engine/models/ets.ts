@@ -92,16 +92,10 @@ function workspace(n: number, spec: Spec): Workspace {
   const m = spec.m;
   const q = 1 + (spec.trend ? 1 : 0) + (spec.seasonal ? m - 1 : 0);
   return {
-    E: new Float64Array(4 * n), lag: new Float64Array(Math.max(m - 1, 1) * n), ring: new Float64Array(m),
+    E: new Float64Array(4 * n), lag: new Float64Array(Math.max(m - 1, 1) * n), ring: new Float64Array(4 * m),
     A: new Float64Array(q * q), rhs: new Float64Array(q),
     chol: { L: new Float64Array(q * q), y: new Float64Array(q), x: new Float64Array(q) }, q,
   };
-}
-
-function dotAt(E: Float64Array, oa: number, ob: number, n: number): number {
-  let s = 0;
-  for (let t = 0; t < n; t++) s += E[oa + t] * E[ob + t];
-  return s;
 }
 
 /**
@@ -124,45 +118,57 @@ function concentrate(y: ArrayLike<number>, spec: Spec, p: Smoothing, ws: Workspa
   const gamma = S ? p.gamma : 0;
   const alpha = p.alpha;
   const { E, lag, A, rhs, ring } = ws;
-  // channel 0: data; 1: unit level; 2: unit trend; 3: unit seasonal at ring position 0
-  for (let c = 0; c < 4; c++) {
-    if ((c === 2 && !T) || (c === 3 && !S)) continue;
-    let l = c === 1 ? 1 : 0;
-    let b = c === 2 ? 1 : 0;
-    const base = c * n;
-    const data = c === 0;
-    if (S) {
-      ring.fill(0);
-      if (c === 3) ring[0] = 1;
-      let k = 0;
-      for (let t = 0; t < n; t++) {
-        const pb = phi * b;
-        const e = (data ? y[t] : 0) - (l + pb + ring[k]);
-        E[base + t] = e;
-        l = l + pb + alpha * e;
-        b = pb + beta * e;
-        ring[k] += gamma * e;
-        if (++k === m) k = 0;
-      }
-    } else {
-      for (let t = 0; t < n; t++) {
-        const pb = phi * b;
-        const e = (data ? y[t] : 0) - (l + pb);
-        E[base + t] = e;
-        l = l + pb + alpha * e;
-        b = pb + beta * e;
-      }
+  // The four channels (0: data; 1: unit level; 2: unit trend; 3: unit seasonal at ring position 0)
+  // run in one loop: each is a serial recursion, so interleaving them lets the processor overlap
+  // them. The Gram entries among the first three channels are summed on the way.
+  const n2 = 2 * n;
+  const n3 = 3 * n;
+  let l0 = 0, l1 = 1, l2 = 0, l3 = 0;
+  let b0 = 0, b1 = 0, b2 = T ? 1 : 0, b3 = 0;
+  let g00 = 0, g01 = 0, g11 = 0, g02 = 0, g12 = 0, g22 = 0;
+  if (S) {
+    // ring: the seasonal states of the four channels at offsets 0, m, 2m, 3m
+    ring.fill(0);
+    ring[3 * m] = 1;
+    let k = 0;
+    for (let t = 0; t < n; t++) {
+      const p0 = phi * b0, p1 = phi * b1, p2 = phi * b2, p3 = phi * b3;
+      const e0 = y[t] - (l0 + p0 + ring[k]);
+      const e1 = -(l1 + p1 + ring[m + k]);
+      const e2 = -(l2 + p2 + ring[2 * m + k]);
+      const e3 = -(l3 + p3 + ring[3 * m + k]);
+      E[t] = e0;
+      E[n + t] = e1;
+      E[n2 + t] = e2;
+      E[n3 + t] = e3;
+      l0 += p0 + alpha * e0; l1 += p1 + alpha * e1; l2 += p2 + alpha * e2; l3 += p3 + alpha * e3;
+      b0 = p0 + beta * e0; b1 = p1 + beta * e1; b2 = p2 + beta * e2; b3 = p3 + beta * e3;
+      ring[k] += gamma * e0; ring[m + k] += gamma * e1; ring[2 * m + k] += gamma * e2; ring[3 * m + k] += gamma * e3;
+      g00 += e0 * e0; g01 += e0 * e1; g11 += e1 * e1; g02 += e0 * e2; g12 += e1 * e2; g22 += e2 * e2;
+      if (++k === m) k = 0;
+    }
+  } else {
+    for (let t = 0; t < n; t++) {
+      const p0 = phi * b0, p1 = phi * b1, p2 = phi * b2;
+      const e0 = y[t] - (l0 + p0);
+      const e1 = -(l1 + p1);
+      const e2 = -(l2 + p2);
+      E[t] = e0;
+      E[n + t] = e1;
+      E[n2 + t] = e2;
+      l0 += p0 + alpha * e0; l1 += p1 + alpha * e1; l2 += p2 + alpha * e2;
+      b0 = p0 + beta * e0; b1 = p1 + beta * e1; b2 = p2 + beta * e2;
+      g00 += e0 * e0; g01 += e0 * e1; g11 += e1 * e1; g02 += e0 * e2; g12 += e1 * e2; g22 += e2 * e2;
     }
   }
   // Free states in order: level, [trend], seasonal 1..m−1. rhs = −E′e0, A = E′E.
-  const g00 = dotAt(E, 0, 0, n);
-  rhs[0] = -dotAt(E, 0, n, n);
-  A[0] = dotAt(E, n, n, n);
+  rhs[0] = -g01;
+  A[0] = g11;
   let off = 1;
   if (T) {
-    rhs[1] = -dotAt(E, 0, 2 * n, n);
-    A[1] = A[q] = dotAt(E, n, 2 * n, n);
-    A[q + 1] = dotAt(E, 2 * n, 2 * n, n);
+    rhs[1] = -g02;
+    A[1] = A[q] = g12;
+    A[q + 1] = g22;
     off = 2;
   }
   if (S) {
@@ -184,11 +190,15 @@ function concentrate(y: ArrayLike<number>, spec: Spec, p: Smoothing, ws: Workspa
       if (T) A[q + col] = A[col * q + 1] = s2;
     }
     // seasonal × seasonal: for j ≤ k, Σ_{u=0}^{n−1−k} E_S[u]·E_S[u+k−j], from cumulative sums per lag
+    // (only the last m partial sums are read below, so only those are stored)
     for (let d = 0; d < m - 1; d++) {
       let s = 0;
       const o = d * n;
-      for (let u = 0; u + d < n; u++) {
-        s += E[s3 + u] * E[s3 + u + d];
+      const e = s3 + d;
+      let u = 0;
+      for (; u < n - m; u++) s += E[s3 + u] * E[e + u];
+      for (; u + d < n; u++) {
+        s += E[s3 + u] * E[e + u];
         lag[o + u] = s;
       }
     }
@@ -215,7 +225,7 @@ function statesOf(ws: Workspace, spec: Spec): InitialStates {
   return { level: x[0], trend: spec.trend ? x[1] : 0, season };
 }
 
-function smoothingFromUnit(u: number[], spec: Spec): Smoothing {
+function smoothingFromUnit(u: ArrayLike<number>, spec: Spec): Smoothing {
   const span = SMOOTH_HI - SMOOTH_LO;
   const alpha = SMOOTH_LO + span * u[0];
   let i = 1;
@@ -242,7 +252,7 @@ function startGrid(spec: Spec): number[][] {
  * while any coordinate improves (at most 2 rounds). Issue 12 §3: no fit may be beaten by a point
  * inside its own box.
  */
-function refineInBox(obj: (u: number[]) => number, x0: number[], f0: number): { x: number[]; fx: number } {
+function refineInBox(obj: (u: ArrayLike<number>) => number, x0: number[], f0: number): { x: number[]; fx: number } {
   let x = x0.slice();
   let fx = f0;
   for (let round = 0; round < 2; round++) {
@@ -295,11 +305,11 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
     throw new EngineError("input", `${SMOOTHING[method].title} (${method}) needs at least ${need} values${spec.seasonal ? ` (two full seasons of ${spec.m} and enough for its parameters)` : ""}; the series has ${y.length}.`);
   }
   const missing = countMissing(y);
-  let obj: (u: number[]) => number;
+  let obj: (u: ArrayLike<number>) => number;
   let statesAt: (p: Smoothing) => InitialStates;
   if (missing === 0) {
     const ws = workspace(y.length, spec);
-    obj = (u: number[]): number => Math.log(concentrate(y, spec, smoothingFromUnit(u, spec), ws));
+    obj = (u: ArrayLike<number>): number => Math.log(concentrate(y, spec, smoothingFromUnit(u, spec), ws));
     statesAt = (p: Smoothing): InitialStates => {
       concentrate(y, spec, p, ws);
       return statesOf(ws, spec);
@@ -308,7 +318,7 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
     checkGapsFit(y, method, period);
     const ws = gapWorkspace(y, spec);
     // −2ℓ/n_obs up to a constant: ln Σ v²/s + (1/n_obs)Σ ln s (METHODS §8)
-    obj = (u: number[]): number => {
+    obj = (u: ArrayLike<number>): number => {
       const r = concentrateWithGaps(y, spec, smoothingFromUnit(u, spec), ws);
       return Math.log(r.sse) + r.sumLogS / r.nObs;
     };
