@@ -4,8 +4,9 @@
 //   ℓ_t = ℓ_{t−1} + φb_{t−1} + αe_t,  b_t = φb_{t−1} + βe_t,  s_t = s_{t−m} + γe_t
 // Estimation by Gaussian maximum likelihood (minimise n·ln SSE). The initial states enter the
 // errors linearly, so for given smoothing parameters they are solved exactly by least squares
-// (a concentrated likelihood), and only α, β, γ, φ are searched: a grid of starts, then
-// Nelder–Mead from the best few, inside the usual admissible box.
+// (a concentrated likelihood), and only α, β, γ, φ are searched: a grid of starts, short
+// Nelder–Mead runs from the best eight distinct ones, a full run from the best of those, inside
+// the usual admissible box.
 import { EngineError } from "../errors";
 import { solveSymmetric } from "../_lib/cholesky";
 import { minimizeBounded } from "../_lib/brent";
@@ -328,7 +329,8 @@ export interface SmoothingFitOptions {
 
 /**
  * Fits an exponential-smoothing model (additive errors) by maximum likelihood: smoothing and
- * damping parameters by a grid of starts and Nelder–Mead (Nelder & Mead 1965) on the admissible
+ * damping parameters by a grid of starts and Nelder–Mead (Nelder & Mead 1965; short runs from eight
+ * distinct starts, a full run from the best) on the admissible
  * box 1e-4 ≤ α ≤ 1 − 1e-4, β = α·β* and γ = (1 − α)·γ* with β*, γ* in the same range (so
  * 0 < β < α and 0 < γ < 1 − α), 0.8 ≤ φ ≤ 0.98; initial states by exact least squares for each
  * trial (concentrated likelihood). Source: Hyndman et al. (2008), ch. 5 (estimation) and 6.
