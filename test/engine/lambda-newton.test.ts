@@ -54,6 +54,16 @@ describe("huge and tiny values", () => {
     const c = ref.huge_range;
     expect(c.scipy.error).toBe("FloatingPointError");
     for (const [l, v] of Object.entries(c.llf_grid)) expectClose(boxCoxLogLik(c.values, Number(l)), v as number, { rtol: 1e-12 }, `ℓ(${l})`);
+    // where |λ·ln(y/geometric mean)| > 300 the terms are scaled by the largest: its slope and curvature too
+    const p = new BoxCoxProfile(c.values);
+    for (const l of [-4, -1.5, 2, 4.5]) {
+      const h = 1e-5;
+      const fd1 = (p.at(l + h).loglik - p.at(l - h).loglik) / (2 * h);
+      const k = 1e-2; // ℓ is about 1e4 here: a wider step keeps rounding out of the second difference
+      const fd2 = (p.at(l + k).loglik - 2 * p.at(l).loglik + p.at(l - k).loglik) / (k * k);
+      expectClose(p.at(l).slope, fd1, { rtol: 1e-6 }, `ℓ′(${l})`);
+      expectClose(p.at(l).curvature, fd2, { rtol: 1e-4 }, `ℓ″(${l})`);
+    }
     const r = lambdaMle(c.values, WIDE);
     expectClose(r.lambda, c.lambda, { atol: 1e-12 }, "λ");
     expectClose(r.interval[0] as number, c.ci95[0], { atol: 1e-12 }, "ci low");

@@ -49,7 +49,7 @@ export interface LambdaMleResult {
  * λ by maximum likelihood (Box & Cox 1964), maximising the profile log-likelihood over
  * [lower, upper] (default [−1, 2]) by Newton's method on its analytic derivatives, safeguarded by
  * bisection inside a bracket whose ends are evaluated only when a step reaches them; the
- * likelihood-ratio interval {λ : ℓ(λ) ≥ ℓ(λ̂) − ½χ²₁(level)} by Newton's method from the ends of
+ * likelihood-ratio interval {λ : ℓ(λ) ≥ ℓ(λ̂) − ½χ²₁(level)} by Halley's method from the roots of
  * the quadratic approximation at λ̂ (not truncated to the bounds). ℓ is strictly concave in λ
  * (see box-cox-profile.ts), so the maximum and each end are unique. Needs ≥ 4 positive values that
  * are not all equal.
