@@ -1,83 +1,12 @@
 import { EngineError } from "../errors";
-import { findRoot, minimizeBounded } from "../_lib/brent";
 import { requireFinite } from "../_lib/check";
 import { chiSquareQuantile } from "../distribution/chisquare";
 import { isConstant, requirePositiveSeries } from "../series/positive";
-import { LAMBDA_ZERO } from "./box-cox";
+import { BoxCoxProfile, ProfileFunction, ProfilePoint } from "./box-cox-profile";
 import { boundHit, checkLambdaBounds } from "./bounds";
 
 /** Smallest series the likelihood method accepts. */
 export const MLE_MIN_LENGTH = 4;
-
-/**
- * A prepared profile log-likelihood for one positive series (logs computed once).
- * ℓ(λ) = (λ − 1)·Σ ln y − (n/2)·ln σ̂²(λ), σ̂² the variance (divisor n) of the Box-Cox values.
- * Source: Box & Cox (1964), JRSS-B 26:211–252, eq. for the maximised log-likelihood; the same
- * constant-free form as scipy.stats.boxcox_llf.
- */
-export function profileLogLik(values: readonly number[]): (lambda: number) => number {
-  const n = values.length;
-  const logs = new Float64Array(n);
-  let sumLog = 0;
-  let minLog = Infinity;
-  let maxLog = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const l = Math.log(values[i]);
-    logs[i] = l;
-    sumLog += l;
-    if (l < minLog) minLog = l;
-    if (l > maxLog) maxLog = l;
-  }
-  const work = new Float64Array(n);
-  return (lambda: number): number => {
-    let logVar: number;
-    if (Math.abs(lambda) < LAMBDA_ZERO) {
-      logVar = Math.log(variance(logs, n));
-    } else {
-      const maxArg = lambda > 0 ? lambda * maxLog : lambda * minLog;
-      const maxAbs = Math.abs(lambda) * Math.max(Math.abs(minLog), Math.abs(maxLog));
-      let sum = 0;
-      if (maxAbs <= 1) {
-        // y^λ is near 1: expm1 keeps the digits that y^λ − 1 would cancel.
-        for (let i = 0; i < n; i++) {
-          const w = Math.expm1(lambda * logs[i]) / lambda;
-          work[i] = w;
-          sum += w;
-        }
-        logVar = Math.log(centredSquares(work, n, sum / n) / n);
-      } else {
-        // Away from λ·ln y ≈ 0 the −1 of the transform is only a shift, and subtracting it would
-        // cancel digits when every y^λ ≪ 1; y^λ may also overflow. So use
-        // var(w) = var(y^λ)/λ² = e^{2M}·var(e^{λ ln y − M})/λ², with M = max λ·ln y.
-        for (let i = 0; i < n; i++) {
-          const u = Math.exp(lambda * logs[i] - maxArg);
-          work[i] = u;
-          sum += u;
-        }
-        logVar = 2 * maxArg + Math.log(centredSquares(work, n, sum / n) / n) - 2 * Math.log(Math.abs(lambda));
-      }
-    }
-    return (lambda - 1) * sumLog - 0.5 * n * logVar;
-  };
-}
-
-/** Σ(x − m)² with the usual correction for the rounding error in m (two-pass variance). */
-function centredSquares(x: Float64Array, n: number, m: number): number {
-  let s = 0;
-  let c = 0;
-  for (let i = 0; i < n; i++) {
-    const d = x[i] - m;
-    s += d * d;
-    c += d;
-  }
-  return s - (c * c) / n;
-}
-
-function variance(x: Float64Array, n: number): number {
-  let m = 0;
-  for (let i = 0; i < n; i++) m += x[i];
-  return centredSquares(x, n, m / n) / n;
-}
 
 /**
  * Box-Cox profile log-likelihood ℓ(λ) of a positive series (Box & Cox 1964), without constants,
@@ -88,7 +17,7 @@ export function boxCoxLogLik(values: readonly number[], lambda: number): number 
   requirePositiveSeries(values, 2, "the series", "a Box-Cox likelihood");
   requireFinite(lambda, "lambda");
   if (isConstant(values)) throw new EngineError("input", "The series is constant, so its Box-Cox likelihood is unbounded. λ cannot be estimated from it.");
-  return profileLogLik(values)(lambda);
+  return new BoxCoxProfile(values).at(lambda).loglik;
 }
 
 /** Options for {@link lambdaMle}. */
@@ -118,9 +47,12 @@ export interface LambdaMleResult {
 
 /**
  * λ by maximum likelihood (Box & Cox 1964), maximising the profile log-likelihood over
- * [lower, upper] (default [−1, 2]) by a 13-point grid scan then Brent's method, with the
- * likelihood-ratio interval {λ : ℓ(λ) ≥ ℓ(λ̂) − ½χ²₁(level)} found by Brent root-finding inside
- * the grid cells that bracket it (not truncated to the bounds). Needs ≥ 4 positive values that are not all equal.
+ * [lower, upper] (default [−1, 2]) by Newton's method on its analytic derivatives, safeguarded by
+ * bisection inside a bracket whose ends are evaluated only when a step reaches them; the
+ * likelihood-ratio interval {λ : ℓ(λ) ≥ ℓ(λ̂) − ½χ²₁(level)} by Halley's method from the roots of
+ * the quadratic approximation at λ̂ (not truncated to the bounds). ℓ is strictly concave in λ
+ * (see box-cox-profile.ts), so the maximum and each end are unique. Needs ≥ 4 positive values that
+ * are not all equal.
  * @example lambdaMle(airPassengers).lambda // 0.148023 (scipy.stats.boxcox_normmax: 0.14802263)
  */
 export function lambdaMle(values: readonly number[], options: LambdaMleOptions = {}): LambdaMleResult {
@@ -130,64 +62,131 @@ export function lambdaMle(values: readonly number[], options: LambdaMleOptions =
   const bounds = checkLambdaBounds(options.lower, options.upper);
   const level = options.level ?? 0.95;
   if (!(level > 0 && level < 1)) throw new EngineError("input", `The interval level must be between 0 and 1; got ${level}.`);
-  const llf = profileLogLik(values);
-  // Grid scan (13 points) for the global maximum, then Brent's method in the cells around it.
-  const points = 13;
-  const step = (bounds[1] - bounds[0]) / (points - 1);
-  const grid: number[] = [];
-  const vals: number[] = [];
-  let best = 0;
-  for (let i = 0; i < points; i++) {
-    grid.push(bounds[0] + i * step);
-    vals.push(llf(grid[i]));
-    if (vals[i] > vals[best] || !Number.isFinite(vals[best])) best = i;
-  }
-  const lo = grid[Math.max(0, best - 1)];
-  const hi = grid[Math.min(points - 1, best + 1)];
-  const opt = minimizeBounded((l) => -llf(l), lo, hi, 1e-10);
-  const lambda = opt.x;
-  const loglik = -opt.fx;
-  const cut = loglik - 0.5 * chiSquareQuantile(level, 1);
-  const g = (l: number): number => llf(l) - cut;
+  const profile = new BoxCoxProfile(values);
+  const top = maximiseProfile(profile, bounds[0], bounds[1]);
+  const drop = 0.5 * chiSquareQuantile(level, 1);
   return {
-    lambda,
-    loglik,
-    interval: options.withInterval === false ? [null, null] : [intervalEnd(g, lambda, -1, grid, vals, cut), intervalEnd(g, lambda, +1, grid, vals, cut)],
+    lambda: top.lambda,
+    loglik: top.loglik,
+    interval: options.withInterval === false ? [null, null] : [intervalEnd(profile, top, drop, -1), intervalEnd(profile, top, drop, +1)],
     level,
     bounds,
-    onBound: boundHit(lambda, bounds),
+    onBound: boundHit(top.lambda, bounds),
     n: values.length,
   };
 }
 
+/** Newton steps smaller than this end the search (the error after such a step is of its square). */
+const STEP_TOL = 1e-6;
+
 /**
- * One end of the likelihood-ratio interval: the crossing of g = ℓ − cut on the `dir` side of λ̂.
- * The grid already evaluated usually brackets it; otherwise walk outward (up to 10 from λ̂).
- * Null when ℓ never drops that far.
+ * The maximum of a concave ℓ on [lo, hi]: Newton's method on ℓ′ from λ = 0 (or the nearer bound),
+ * where no exponential is needed. The bracket [a, b] (ℓ′(a) > 0 > ℓ′(b)) starts as the bounds; a
+ * bound is evaluated only when a step reaches it, and if ℓ′ there still points outward the maximum
+ * is that bound. A step that leaves the bracket or does not shrink fast enough (less than half the
+ * step before last, as in the safeguarded Newton of Press et al.'s rtsafe) is replaced by bisection.
+ * @example maximiseProfile(new BoxCoxProfile(airPassengers), -1, 2).lambda // 0.148023 (scipy.stats.boxcox_normmax: 0.14802263)
  */
-function intervalEnd(g: (l: number) => number, center: number, dir: -1 | 1, grid: number[], vals: number[], cut: number): number | null {
-  let inner = center;
-  const order = dir < 0 ? grid.map((_, i) => grid.length - 1 - i) : grid.map((_, i) => i);
-  for (const i of order) {
-    if ((grid[i] - center) * dir <= 0) continue;
-    const v = vals[i] - cut;
-    if (!Number.isFinite(v) || v < 0) {
-      const r = findRoot(g, inner, grid[i], 1e-9);
-      return Number.isFinite(r) ? r : null;
+export function maximiseProfile(profile: ProfileFunction, lo: number, hi: number): ProfilePoint {
+  let a = lo;
+  let b = hi;
+  let aKnown = false;
+  let bKnown = false;
+  let x = Math.min(Math.max(0, lo), hi);
+  let P = profile.at(x);
+  let stepOld = hi - lo;
+  let step = stepOld;
+  for (let iter = 0; iter < 200; iter++) {
+    if (P.slope > 0) {
+      if (x === hi) return P;
+      a = x;
+      aKnown = true;
+    } else if (P.slope < 0) {
+      if (x === lo) return P;
+      b = x;
+      bKnown = true;
+    } else {
+      return P;
     }
-    inner = grid[i];
-  }
-  let step = 0.25;
-  for (let travelled = Math.abs(inner - center); travelled < 10; ) {
-    const outer = center + dir * Math.min(10, travelled + step);
-    const v = g(outer);
-    if (!Number.isFinite(v) || v < 0) {
-      const r = findRoot(g, inner, outer, 1e-9);
-      return Number.isFinite(r) ? r : null;
+    const newton = x - P.slope / P.curvature;
+    if (P.curvature < 0 && Math.abs(newton - x) <= STEP_TOL && newton >= a && newton <= b) {
+      // Converged: one more Newton step costs nothing; ℓ moves by ½·ℓ′·step to second order.
+      return { lambda: newton, loglik: P.loglik + 0.5 * P.slope * (newton - x), slope: 0, curvature: P.curvature };
     }
-    inner = outer;
-    travelled = Math.abs(outer - center);
-    step = Math.min(step * 2, 2);
+    let next: number;
+    if (newton >= b && !bKnown) {
+      next = b;
+    } else if (newton <= a && !aKnown) {
+      next = a;
+    } else if (newton > a && newton < b && P.curvature < 0 && Math.abs(2 * (newton - x)) <= Math.abs(stepOld)) {
+      next = newton;
+    } else {
+      next = 0.5 * (a + b);
+    }
+    stepOld = step;
+    step = next - x;
+    if (aKnown && bKnown && b - a <= 4e-16 * Math.max(1, Math.abs(a))) return P;
+    x = next;
+    P = profile.at(x);
   }
-  return null;
+  return P;
+}
+
+/**
+ * Halley steps for an interval end smaller than this times the distance from λ̂ end the search (the
+ * error after one is of the order of its cube, measured on the profile's own scale).
+ */
+const END_TOL = 1e-4;
+
+/**
+ * One end of the likelihood-ratio interval: where ℓ(λ) = ℓ(λ̂) − drop on the `dir` side of λ̂.
+ * Halley's method (cubic convergence; ℓ″ comes free with ℓ′) in the distance d from λ̂, from the
+ * root of the quadratic approximation at λ̂;
+ * outward doubling while ℓ is still above the cut and not falling; bisection once the end is
+ * bracketed and a step leaves the bracket. Null when ℓ has not dropped that far 10 from λ̂.
+ * @example intervalEnd(profile, maximiseProfile(profile, -1, 2), 1.92073, +1) // 0.53371 for AirPassengers (scipy.stats.boxcox, alpha=0.05)
+ */
+export function intervalEnd(profile: ProfileFunction, top: ProfilePoint, drop: number, dir: -1 | 1): number | null {
+  const MAX = 10;
+  const cut = top.loglik - drop;
+  const s = top.slope * dir;
+  const h = top.curvature;
+  let d = h < 0 ? (s + Math.sqrt(s * s - 2 * h * drop)) / -h : 1;
+  if (!(d > 0 && Number.isFinite(d))) d = 1;
+  d = Math.min(d, MAX);
+  let inner = 0;
+  let outer = Infinity;
+  let stepOld = MAX;
+  let step = MAX;
+  for (let iter = 0; iter < 200; iter++) {
+    const P = profile.at(top.lambda + dir * d);
+    const q = P.loglik - cut;
+    const qd = P.slope * dir;
+    if (q > 0) {
+      if (d >= MAX) return null;
+      inner = d;
+    } else if (q < 0) {
+      outer = d;
+    } else {
+      return top.lambda + dir * d;
+    }
+    // Halley's step (ℓ″ comes with ℓ′ in the same pass), else Newton's.
+    const denom = 2 * qd * qd - q * P.curvature;
+    const halley = d - (2 * q * qd) / denom;
+    const newton = qd < 0 && denom > 0 ? halley : d - q / qd;
+    if (qd < 0 && Math.abs(newton - d) <= END_TOL * d && newton >= inner && newton <= outer) return top.lambda + dir * newton;
+    let next: number;
+    if (outer === Infinity) {
+      next = newton > d ? Math.min(newton, MAX) : Math.min(2 * d, MAX);
+    } else if (newton > inner && newton < outer && Math.abs(2 * (newton - d)) <= Math.abs(stepOld)) {
+      next = newton;
+    } else {
+      next = 0.5 * (inner + outer);
+    }
+    stepOld = step;
+    step = next - d;
+    if (outer - inner <= 1e-12) return top.lambda + dir * next;
+    d = next;
+  }
+  return outer === Infinity ? null : top.lambda + dir * 0.5 * (inner + outer);
 }
