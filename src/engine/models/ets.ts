@@ -323,8 +323,14 @@ const SCOUT_EVALUATIONS = 50;
 
 /** Options for {@link fitSmoothing}. */
 export interface SmoothingFitOptions {
-  /** Short Nelder–Mead runs from the best distinct grid starts (default 8). */
+  /** Short Nelder–Mead runs from the best distinct grid starts (default 8; 2 when `quick`). */
   starts?: number;
+  /**
+   * A screening fit for comparing many (λ, form) pairs: two short starts and the full run, without
+   * the final polish and in-box refinement (about a third of the evaluations). The λ rules compare
+   * candidates with it and refit the one they keep in full.
+   */
+  quick?: boolean;
 }
 
 /**
@@ -376,12 +382,12 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
       if (f < bf) { bf = f; bi = i; }
     }
     const r = minimizeBounded((u) => obj([u]), Math.max(0, bi - 1) / (pts - 1), Math.min(pts - 1, bi + 1) / (pts - 1), 1e-9);
-    bestU = refineInBox(obj, [r.x], r.fx).x;
+    bestU = options.quick ? [r.x] : refineInBox(obj, [r.x], r.fx).x;
   } else {
     const grid = startGrid(spec).map((u) => ({ u, f: obj(u) })).sort((a, b) => a.f - b.f);
     const chosen: number[][] = [];
     for (const g of grid) {
-      if (chosen.length >= (options.starts ?? 8)) break;
+      if (chosen.length >= (options.starts ?? (options.quick ? 2 : 8))) break;
       if (chosen.every((c) => c.some((v, i) => Math.abs(v - g.u[i]) > 0.2))) chosen.push(g.u);
     }
     // Short Nelder–Mead runs from every chosen start, then a full run from the best of them: the
@@ -396,6 +402,10 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
     }
     const full = minimizeBox(obj, scout.x, 0.05, 1e-5, 1e-3, 120);
     best = full.fx < scout.fx ? full : scout;
+    if (options.quick) {
+      const p = smoothingFromUnit(best.x, spec);
+      return buildModel(y, method, period, p, statesAt(p));
+    }
     const polish = minimizeBox(obj, best.x, 0.01, 1e-10, 1e-7, 150);
     const top = polish.fx < best.fx ? polish : best;
     bestU = refineInBox(obj, top.x, top.fx).x;

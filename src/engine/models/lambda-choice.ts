@@ -98,12 +98,15 @@ export function transformSeries(y: readonly number[], t: TransformSpec): number[
   return varies ? w : null;
 }
 
-function fitConcrete(w: readonly number[], method: Exclude<MethodName, "auto">, period: number): FittedModel {
+/** Screening fits for comparing λ values (ets.ts `quick`); the model a rule keeps is refitted in full. */
+const SCREENING = { quick: true } as const;
+
+function fitConcrete(w: readonly number[], method: Exclude<MethodName, "auto">, period: number, quick = false): FittedModel {
   if (isArimaMethod(method)) {
     const spec = parseArimaMethod(method, period);
     return spec.auto ? autoArima(w, period).model : fitArima(w, spec.order);
   }
-  return isBenchmark(method) ? fitBenchmark(w, method, period) : fitSmoothing(w, method as SmoothingMethod, period);
+  return isBenchmark(method) ? fitBenchmark(w, method, period) : fitSmoothing(w, method as SmoothingMethod, period, quick ? SCREENING : {});
 }
 
 /** One (λ, form) pair tried by the `auto` rule. */
@@ -168,7 +171,7 @@ export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOp
       let model: FittedModel;
       let auto: AutoChoice | null = null;
       if (method === "auto") {
-        auto = fitAuto(w, period);
+        auto = fitAuto(w, period, SCREENING);
         model = auto.model;
         // Every smoothing form's likelihood covers all n points, so one Jacobian serves them all.
         const J = jacobianOf(y, t, w.length);
@@ -177,7 +180,7 @@ export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOp
           candidates.push({ lambda, method: c.method, aicc: aiccOf(ll, c.k + 1, w.length), loglik: ll });
         }
       } else {
-        model = fitConcrete(w, method, period);
+        model = fitConcrete(w, method, period, true);
       }
       const fit = originalScaleFit(model, y, t, true);
       if (method !== "auto") candidates.push({ lambda, method: model.method, aicc: fit.aicc, loglik: fit.loglik });
@@ -202,7 +205,7 @@ export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOp
     const w = transformSeries(y, t);
     if (!w) return -Infinity;
     try {
-      return originalScaleFit(fitConcrete(w, form, period), y, t, true).loglik;
+      return originalScaleFit(fitConcrete(w, form, period, true), y, t, true).loglik;
     } catch (e) {
       if (e instanceof EngineError) return -Infinity;
       throw e;
@@ -244,8 +247,19 @@ export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOp
   }
   const how = method === "auto" ? `λ and the form (${form}) chosen together` : `λ chosen for ${form}`;
   if (llMax - best.fit.loglik <= cut) {
+    // the kept (λ, form) refitted in full (the comparison used screening fits)
+    const wBest = transformSeries(y, best.t) as number[];
+    const full = fitConcrete(wBest, form, period);
+    const fullFit = originalScaleFit(full, y, best.t, true);
+    const entry = candidates.find((c) => c.lambda === best.lambda && c.method === form);
+    if (entry && fullFit.aicc < entry.aicc) {
+      entry.aicc = fullFit.aicc;
+      entry.loglik = fullFit.loglik;
+      candidates.sort((a, b) => a.aicc - b.aicc);
+    }
+    const keep = fullFit.loglik >= best.fit.loglik ? { model: full, fit: fullFit } : { model: best.model, fit: best.fit };
     return {
-      lambda: best.lambda, transform: best.t, model: best.model, auto: best.auto, fit: best.fit, candidates, margin, usedMaximum: false,
+      lambda: best.lambda, transform: best.t, model: keep.model, auto: best.auto ? { ...best.auto, model: keep.model } : null, fit: keep.fit, candidates, margin, usedMaximum: false,
       note: `auto: ${how} by AICc on the original scale among λ = 1, ½, ⅓, 0, −½, −1${perLambda.length > 1 ? ` (${margin.toFixed(1)} below the next λ)` : ""}.${sampleNote(yAll.length)}`,
     };
   }
@@ -294,7 +308,7 @@ export function profileModelLambda(yAll: readonly number[], method: Exclude<Meth
     const w = transformSeries(y, t);
     if (!w) return -Infinity;
     try {
-      return originalScaleFit(fitConcrete(w, method, period), y, t, true).loglik;
+      return originalScaleFit(fitConcrete(w, method, period, true), y, t, true).loglik;
     } catch (e) {
       if (e instanceof EngineError) return -Infinity;
       throw e;

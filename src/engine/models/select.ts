@@ -1,6 +1,6 @@
 import { EngineError, isEngineError } from "../errors";
 import { countMissing } from "../series/clean";
-import { checkGapsFit, fitSmoothing, minimumLength } from "./ets";
+import { checkGapsFit, fitSmoothing, minimumLength, SmoothingFitOptions } from "./ets";
 import { SmoothingMethod } from "./methods";
 import type { FittedModel } from "./types";
 
@@ -26,7 +26,7 @@ const ORDER: SmoothingMethod[] = ["ses", "holt", "damped", "seasonal-ses", "holt
  * Hyndman et al. (2008), §7.1 (Hurvich & Tsai 1989 correction).
  * @example fitAuto(logAirPassengers, 12).model.method // "holt-winters"
  */
-export function fitAuto(w: readonly number[], period: number): AutoChoice {
+export function fitAuto(w: readonly number[], period: number, fitOptions: SmoothingFitOptions = {}): AutoChoice {
   const candidates: Candidate[] = [];
   const missing = countMissing(w);
   const skipped: AutoChoice["skipped"] = [];
@@ -48,7 +48,7 @@ export function fitAuto(w: readonly number[], period: number): AutoChoice {
         continue;
       }
     }
-    const model = fitSmoothing(w, method, period);
+    const model = fitSmoothing(w, method, period, fitOptions);
     candidates.push({ method, aicc: model.aicc, loglik: model.loglik, k: model.k });
     if (!best || model.aicc < best.aicc) best = model;
   }
