@@ -167,12 +167,15 @@ test("a single text cell: the pane says what to select instead, and computes not
   await page.close();
 });
 
+// Each series' check chooses λ with the form (dozens of model fits on 1,000 values), so 50 of them
+// take a minute or more on a loaded 2-core machine: the pane must stay responsive meanwhile (slices,
+// frames); how long it takes is a benchmark figure (issue 17), not this test's limit.
 test("1,000 × 50 cells: checked in slices with frames painted in between, then all 50 series listed and the first previewed", async () => {
   const { page, errors } = await openWith({ address: "Sheet1!A1:AX1001", grid: [1000, 50] });
   await page.waitForFunction(() => {
     const p = (window as unknown as { fanwisePane?: Pane }).fanwisePane;
     return !!p && p.renders > 0 && !p.checking && document.querySelectorAll("#fw-check tbody tr").length > 0;
-  }, undefined, { timeout: 60000 });
+  }, undefined, { timeout: 300000 });
   const p = await pane(page);
   const frames = await page.evaluate(() => (window as unknown as { framesWhileChecking: number }).framesWhileChecking);
   console.log(`1,000 × 50 selection: series check in ${p.checkSlices} slices, ${frames} frames painted while it ran`);
@@ -192,7 +195,7 @@ test("1,000 × 50 cells: checked in slices with frames painted in between, then 
   expect(errors).toEqual([]);
   expect(env.offSite).toEqual([]);
   await page.close();
-});
+}, 360000);
 
 test("whole columns are cut to the data; an oversized selection is refused with what to do", async () => {
   // Whole columns A:D: 1,048,576 rows, of which 120 (plus the header) hold data.
