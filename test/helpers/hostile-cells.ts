@@ -104,6 +104,14 @@ export const costlyRange: fc.Arbitrary<unknown> = fc.oneof(
   { weight: 2, arbitrary: anyCell },
 );
 
+/** Like costlyRange, with single-column plausible series (for costly functions that take one series). */
+export const costlyColumn: fc.Arbitrary<unknown> = fc.oneof(
+  { weight: 5, arbitrary: plausibleSeries(1) },
+  { weight: 6, arbitrary: randomRange },
+  { weight: 2, arbitrary: raggedRange },
+  { weight: 2, arbitrary: anyCell },
+);
+
 /** Like anyRange, but its plausible series are single columns (for functions that take one series). */
 export const anyColumn: fc.Arbitrary<unknown> = fc.oneof(
   { weight: 7, arbitrary: plausibleSeries(1) },
