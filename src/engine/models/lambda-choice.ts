@@ -297,13 +297,23 @@ export interface ModelLambda {
  * reported open (null).
  * @example profileModelLambda(air, "holt-winters", { period: 12 }).interval // contains λ̂
  */
-export function profileModelLambda(yAll: readonly number[], method: Exclude<MethodName, "auto">, options: ModelLambdaOptions & { lower?: number; upper?: number } = {}): ModelLambda {
+export function profileModelLambda(yAll: readonly number[], method: Exclude<MethodName, "auto">, options: ModelLambdaOptions & { lower?: number; upper?: number; known?: readonly LambdaCandidate[] } = {}): ModelLambda {
   const y = recent(yAll);
   const kind = options.kind ?? "box-cox";
   const shift = options.shift ?? 0;
   const period = options.period ?? 1;
   const level = options.level ?? 0.95;
+  // Each value of the profile is a model fit: remember them (and take the ones the auto rule already made).
+  const seen = new Map<number, number>();
+  for (const c of options.known ?? []) if (c.method === method) seen.set(c.lambda, c.loglik);
   const ll = (lambda: number): number => {
+    const hit = seen.get(lambda);
+    if (hit !== undefined) return hit;
+    const v = llFit(lambda);
+    seen.set(lambda, v);
+    return v;
+  };
+  const llFit = (lambda: number): number => {
     const t = makeTransform(kind, lambda, shift);
     const w = transformSeries(y, t);
     if (!w) return -Infinity;
@@ -327,7 +337,7 @@ export function profileModelLambda(yAll: readonly number[], method: Exclude<Meth
       if (f > bf) { bf = f; bi = i; }
     }
     if (!Number.isFinite(bf)) throw new EngineError("input", `No λ between ${fmt(b[0])} and ${fmt(b[1])} gives a usable fit of ${method}.`);
-    const r = minimizeBounded((l) => -ll(l), xs[Math.max(0, bi - 1)], xs[Math.min(n - 1, bi + 1)], 1e-5);
+    const r = minimizeBounded((l) => -ll(l), xs[Math.max(0, bi - 1)], xs[Math.min(n - 1, bi + 1)], 1e-4);
     return -r.fx >= bf ? { x: r.x, f: -r.fx } : { x: xs[bi], f: bf };
   };
   let best = search(bounds);
@@ -344,7 +354,7 @@ export function profileModelLambda(yAll: readonly number[], method: Exclude<Meth
     for (let step = 0.1; ; step *= 2) {
       const outer = Math.max(-5, Math.min(5, inner + dir * step));
       if (g(outer) < 0) {
-        const r = findRoot(g, inner, outer, 1e-6);
+        const r = findRoot(g, inner, outer, 1e-5);
         return Number.isFinite(r) ? r : null;
       }
       if (outer === -5 || outer === 5) return null;
@@ -367,7 +377,8 @@ export function profileModelLambda(yAll: readonly number[], method: Exclude<Meth
  */
 export function fitLambdaForModel(y: readonly number[], options: ModelLambdaOptions & { lambdaMethod?: "auto" | "model" } = {}): LambdaChoice {
   const a = chooseLambdaAuto(y, options);
-  const p = profileModelLambda(y, a.model.method, options);
+  // the auto rule's screening fits at the readable λ are the same profile's values (same data, same fits)
+  const p = profileModelLambda(y, a.model.method, { ...options, known: recent(y).length === y.length ? a.candidates : undefined });
   const notes = [a.note];
   if (options.lambdaMethod === "model") {
     if (p.note) notes.push(p.note);
