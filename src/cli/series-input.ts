@@ -3,7 +3,7 @@
 // series keeping its own message when it cannot be used.
 import * as path from "path";
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
-import { DecimalMark, parseDelimiterOption, readTable, SeriesTable } from "../io";
+import { DecimalMark, parseDelimiterOption, parsePeriodLabel, readTable, SeriesTable } from "../io";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs, usageError } from "./options";
 import { Io, oneLine } from "./output";
@@ -95,17 +95,47 @@ export function reportReading(io: Io, json: boolean, data: SeriesTable): void {
  * @example stepLabels(data, 0, 2) // ["2026-01", "2026-02"]
  */
 export function stepLabels(data: SeriesData, j: number, H: number): string[] | null {
-  const cal = data.calendar;
-  if (!cal || !data.next) return null;
+  return labelsAfter(data, lastObserved(data, j), H);
+}
+
+/** The position of series j's last observed value (−1 when it has none). */
+export function lastObserved(data: SeriesData, j: number): number {
   const cells = data.column(j);
   let last = cells.length - 1;
   while (last >= 0 && (cells[last] === null || cells[last] === undefined || String(cells[last]).trim() === "")) last--;
+  return last;
+}
+
+/**
+ * The labels of the H periods after position `last` of the file's calendar; null without a calendar.
+ * @example labelsAfter(data, 71, 2) // ["2026-01", "2026-02"] for a monthly file starting 2020-01
+ */
+export function labelsAfter(data: SeriesData, last: number, H: number): string[] | null {
+  const cal = data.calendar;
+  if (!cal || !data.next) return null;
   const n = cal.labels.length;
   const next = data.next;
   return Array.from({ length: H }, (_, k) => {
     const at = last + k + 1;
     return at < n ? cal.labels[at] : next(at - (n - 1));
   });
+}
+
+/**
+ * A period typed by the user (--from 2026-01, "Jan 2026", "2026 Q1", "2026") written the way the
+ * file's calendar writes its labels ("2026-01", "2026-Q1", "2026", or an ISO date), or null when
+ * it cannot be read as a period of that frequency.
+ * @example calendarLabel("Jan 2026", "monthly") // "2026-01"
+ */
+export function calendarLabel(text: string, frequency: string): string | null {
+  const p = parsePeriodLabel(text);
+  if (!p) return null;
+  const two = (x: number): string => String(x).padStart(2, "0");
+  const hasMonth = p.family === "ym" || p.family === "my" || p.family === "mon" || p.family === "ymd" || p.family === "dmy";
+  if (frequency === "monthly") return hasMonth ? `${p.y}-${two(p.a)}` : null;
+  if (frequency === "quarterly") return p.family === "q" ? `${p.y}-Q${p.a}` : null;
+  if (frequency === "yearly") return p.family === "year" ? String(p.y) : null;
+  return p.family === "ymd" || p.family === "dmy" ? `${p.y}-${two(p.a)}-${two(p.b)}` : null;
 }
 
 /**

@@ -105,11 +105,20 @@ export function selectionData(address: string, values: unknown[][], types: strin
   const data: PaneData = { source: `Selection ${address}`, address, names, columns, headerRows: header ? 1 : 0 };
   const firstRow = (Number(/(\d+)(?::|$)/.exec(address.split("!").pop() ?? "")?.[1]) || 1) + (header ? 1 : 0);
   const dates = width > 1 ? findDateColumn(body, formats ? (header ? formats.slice(1) : formats) : null, firstRow, (j) => names[j]) : null;
-  if (!dates) return data;
-  const keep = names.map((_, j) => j).filter((j) => j !== dates.column);
+  // Columns of text only (series names in a forecast log, shop names) label rows: they are offered
+  // as the audit's group column, not checked as series. Kept as series when nothing numeric is left.
+  const isText = (j: number): boolean => body.some((r) => typeof r[j] === "string" && String(r[j]).trim() !== "") && !body.some((r) => typeof r[j] === "number");
+  const candidates = names.map((_, j) => j).filter((j) => !dates || j !== dates.column);
+  const textCols = candidates.filter(isText);
+  const hasNumber = (j: number): boolean => body.some((r) => typeof r[j] === "number");
+  const labelCols = candidates.some((j) => !textCols.includes(j) && hasNumber(j)) ? textCols : [];
+  if (!dates && labelCols.length === 0) return data;
+  const keep = candidates.filter((j) => !labelCols.includes(j));
   data.names = keep.map((j) => names[j]);
   data.columns = keep.map((j) => columns[j]);
   data.rangeColumns = keep;
+  if (labelCols.length) data.labelColumns = labelCols.map((j) => ({ name: names[j], values: body.map((r) => (r[j] === null || r[j] === undefined ? "" : String(r[j]))) }));
+  if (!dates) return data;
   if (dates.problem) data.problem = dates.problem;
   else if (dates.calendar) {
     const cal = dates.calendar;

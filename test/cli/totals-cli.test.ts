@@ -87,6 +87,35 @@ describe("fanwise total --from/--to and --across", () => {
     r = runCli(["total", datasetPath("AirPassengers")]);
     expect(r.err).toMatch(/--horizon is required/);
   });
+  test("periods instead of steps: --from 1961-08 --to 1962-07 is steps 8..19 after AirPassengers' last month (1960-12), the same numbers", () => {
+    const byStep = JSON.parse(runCli(["total", datasetPath("AirPassengers"), "--from", "8", "--to", "19", "--method", "ses", "--lambda", "0", "--json"]).out).series.value;
+    const r = runCli(["total", datasetPath("AirPassengers"), "--from", "1961-08", "--to", "Jul 1962", "--method", "ses", "--lambda", "0", "--json"]);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out).series.value;
+    expect([j.from, j.horizon, j.firstPeriod, j.lastPeriod]).toEqual([8, 19, "1961-08", "1962-07"]);
+    expect(j.mean).toBe(byStep.mean);
+    expect(j.interval).toEqual(byStep.interval);
+  });
+  test("periods count from each series' own last value: a series two months short sums the same calendar months over its steps 3..14 (invented shops)", () => {
+    const f = file("dated-shops.csv", "# Invented Quillmere shops\nmonth,North,South\n" + Array.from({ length: 40 }, (_, i) => `${2022 + Math.floor(i / 12)}-${String((i % 12) + 1).padStart(2, "0")},${(1000 * Math.exp(0.01 * i)).toFixed(1)},${i >= 38 ? "" : (800 * Math.exp(0.005 * i)).toFixed(1)}`).join("\n") + "\n");
+    const r = runCli(["total", f, "--from", "2025-05", "--to", "2026-04", "--method", "naive", "--lambda", "0", "--json"]);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.out).series;
+    expect([s.North.from, s.North.horizon, s.North.firstPeriod, s.North.lastPeriod]).toEqual([1, 12, "2025-05", "2026-04"]);
+    expect([s.South.from, s.South.horizon, s.South.firstPeriod, s.South.lastPeriod]).toEqual([3, 14, "2025-05", "2026-04"]);
+  });
+  test("bad periods say what to write: before the last value, another frequency, a file without dates", () => {
+    let r = runCli(["total", datasetPath("AirPassengers"), "--from", "1960-06", "--to", "1961-12"]);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/--from 1960-06 is not after value's last value \(1960-12\); a window starts at 1961-01 at the earliest/);
+    r = runCli(["total", datasetPath("AirPassengers"), "--from", "1961Q1", "--to", "1961-12"]);
+    expect(r.err).toMatch(/--from "1961Q1" is not a monthly period; write it like the file's dates, e.g\. 1961-01/);
+    const plain = file("plain.csv", "sales\n" + Array.from({ length: 24 }, (_, i) => 100 + i).join("\n") + "\n");
+    r = runCli(["total", plain, "--from", "2026-01", "--to", "2026-12"]);
+    expect(r.err).toMatch(/--from 2026-01 names a period, but the file has no column of dates/);
+    r = runCli(["total", datasetPath("AirPassengers"), "--from", "1.5", "--to", "12"]);
+    expect(r.err).toMatch(/--from must be a whole number of at least 1 or a period such as 2026-01; got "1.5"/);
+  });
   const shops = file("shops.csv", "# Invented Quillmere shops\nmonth,North,South\n" + Array.from({ length: 40 }, (_, i) => `m${i + 1},${(1000 * Math.exp(0.02 * Math.sin(i) + 0.01 * i)).toFixed(1)},${i >= 38 ? "" : (800 * Math.exp(0.03 * Math.cos(i * 1.3) + 0.005 * i)).toFixed(1)}`).join("\n") + "\n");
   test("--across adds an 'all series' row: the engine's joint total, with the alignment said", () => {
     const r = runCli(["total", shops, "--horizon", "6", "--method", "naive", "--lambda", "0", "--across", "--json"]);

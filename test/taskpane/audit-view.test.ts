@@ -3,6 +3,7 @@
 // from the engine, which test/engine/audit-log.test.ts holds to scipy; here: what the pane shows.
 import { auditLogView, groupChoices, otherLevels } from "../../src/taskpane/audit-view";
 import { pastedData } from "../../src/taskpane/paste";
+import { selectionData } from "../../src/taskpane/excel-io";
 
 // An invented two-shop log (common practice: a small hand-made table): Mill Lane's intervals are
 // far too narrow, Harbour Street's honest-looking.
@@ -58,4 +59,23 @@ test("without a series column the whole log is one sequence; a swapped pair says
   const bad = auditLogView(d, { actual: d.names.indexOf("actual"), lower: d.names.indexOf("upper80"), upper: d.names.indexOf("lower80"), level: 80, group: "" });
   expect(bad.ok).toBe(false);
   if (!bad.ok) expect(bad.message).toMatch(/lower end .* is above the upper end/);
+});
+
+test("the same log selected in Excel (text month labels, a series column of shop names): the series column is a group choice, not a series, and the audit is the pasted one's", () => {
+  const rows = log().split("\n").map((l) => l.split(","));
+  const values = rows.map((r, i) => r.map((v, j) => (i === 0 || j < 2 ? v : Number(v))));
+  const types = values.map((r) => r.map((v) => (typeof v === "number" ? "Double" : "String")));
+  const d = selectionData(`Sheet1!A1:G${rows.length}`, values, types);
+  expect(d.names).toEqual(["lower80", "upper80", "lower95", "upper95", "actual"]);
+  expect(d.labelColumns?.map((l) => l.name)).toEqual(["series"]);
+  expect(d.rangeColumns).toEqual([2, 3, 4, 5, 6]); // formulas still point at the right sheet columns
+  const g = groupChoices(d);
+  expect(g.pick).toBe("l:0");
+  const c = { actual: d.names.indexOf("actual"), lower: d.names.indexOf("lower80"), upper: d.names.indexOf("upper80"), level: 80, group: g.pick, show: "Mill Lane" };
+  const fromExcel = auditLogView(d, c);
+  const p = pastedData(log());
+  const fromPaste = auditLogView(p, { actual: p.names.indexOf("actual"), lower: p.names.indexOf("lower80"), upper: p.names.indexOf("upper80"), level: 80, group: "l:1", show: "Mill Lane" });
+  if (!fromExcel.ok || !fromPaste.ok) throw new Error("audit refused");
+  expect(fromExcel.choices).toEqual(["Harbour Street", "Mill Lane", "all groups"]);
+  expect(fromExcel.row).toEqual(fromPaste.row);
 });

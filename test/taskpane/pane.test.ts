@@ -79,7 +79,7 @@ test("the zero-month and the credit-month series carry the badge with the right 
   expect(await row("Old Quay").locator(".fw-badge").textContent()).toBe("not Box-Cox ready");
   expect(await row("Old Quay").locator(".fw-reason").textContent()).toMatch(/1 zero \(minimum 0, first at 2023-02\).*tick "Treat zeros as missing" in the fan controls\. Otherwise use shift "auto", which adds [\d.]+ \(command line: --shift auto\), or transform "yeo-johnson"/);
   expect(await row("Parts costs (net)").locator(".fw-badge").textContent()).toBe("not Box-Cox ready");
-  expect(await row("Parts costs (net)").locator(".fw-reason").textContent()).toMatch(/1 negative value.*Yeo-Johnson/);
+  expect(await row("Parts costs (net)").locator(".fw-reason").textContent()).toMatch(/1 negative value.*Use transform "yeo-johnson" \(command line: --transform yeo-johnson\)/);
   expect(await row("Harbour Street").locator(".fw-badge").count()).toBe(0);
 });
 

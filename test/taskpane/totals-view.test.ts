@@ -24,6 +24,9 @@ test("total over steps 8–19: the engine's window total, in words", () => {
   const s = totalOverSentence(f, 8, 19, 95);
   expect(s).toContain(`Total of steps 8–19: mean ${money(t.mean.value as number)}; median ${money(t.median)}; 95% interval ${money(t.interval[0])} to ${money(t.interval[1] as number)}`);
   expect(totalOverSentence(f, 20, 19, 95)).toMatch(/from \(20\) is after horizon \(19\)/);
+  // with the data's dates (a history ending in May 2025): steps 8–19 are January to December 2026
+  const after = (h: number): string => { const m = 4 + h; return `${2025 + Math.floor(m / 12)}-${String((m % 12) + 1).padStart(2, "0")}`; };
+  expect(totalOverSentence(f, 8, 19, 95, after)).toContain("Total of steps 8–19 (2026-01 to 2026-12): mean");
 });
 
 test("the series check's total row: the engine's joint total across the selected series", () => {

@@ -9,18 +9,20 @@ function money(x: number | null): string {
 
 /**
  * One sentence on the total of steps from..horizon of the previewed forecast: the mean (the sum of
- * the means), the level% interval from 5,000 seeded paths, and what the medians would add up to.
+ * the means), the level% interval from 5,000 seeded paths, and what the medians would add up to;
+ * with the data's dates, the periods the steps are (`periodOf`, e.g. step 1 → "2026-01").
  * @example totalOverSentence(f, 1, 12, 95) // "Total of steps 1–12: mean 1,358,839; 95% interval …"
  */
-export function totalOverSentence(f: Forecaster, from: number, horizon: number, level: number): string {
+export function totalOverSentence(f: Forecaster, from: number, horizon: number, level: number, periodOf?: (h: number) => string): string {
+  const months = periodOf ? ` (${periodOf(from)}${horizon > from ? ` to ${periodOf(horizon)}` : ""})` : "";
   try {
     const t = totalForecast(f, horizon, { from, level, paths: 5000, seed: 1 });
     let sumMedians: number | null = 0;
     for (const r of fanTable(f, horizon, { levels: [80] }).rows.slice(from - 1)) sumMedians = sumMedians === null || r.median.value === null ? null : sumMedians + r.median.value;
-    return `Total of steps ${from}–${horizon}: mean ${t.mean.value === null ? `not available (${t.mean.note ?? ""})` : money(t.mean.value)}; median ${money(t.median)}; ${t.level}% interval ${money(t.interval[0])} to ${t.interval[1] === null ? "unbounded" : money(t.interval[1])}`
+    return `Total of steps ${from}–${horizon}${months}: mean ${t.mean.value === null ? `not available (${t.mean.note ?? ""})` : money(t.mean.value)}; median ${money(t.median)}; ${t.level}% interval ${money(t.interval[0])} to ${t.interval[1] === null ? "unbounded" : money(t.interval[1])}`
       + `${sumMedians !== null ? `; the monthly medians add up to ${money(sumMedians)}` : ""}.`;
   } catch (e) {
-    if (isEngineError(e)) return `Total over steps ${from}–${horizon}: ${e.message}`;
+    if (isEngineError(e)) return `Total over steps ${from}–${horizon}${months}: ${e.message}`;
     throw e;
   }
 }
