@@ -12,6 +12,7 @@ module.exports = {
   // Two test files at a time: jest's default on a 2-core machine is one worker (cores − 1), which
   // leaves a core idle while the main process only waits (CI runs on 2 cores; common practice).
   maxWorkers: 2,
+  testSequencer: "<rootDir>/test/helpers/slow-first-sequencer.js",
   // Recompiles build/ when the sources are newer, so the CLI tests never run a stale build.
   globalSetup: "<rootDir>/test/helpers/fresh-cli-build.js",
   reporters: ["default", "<rootDir>/test/helpers/summary-reporter.js"],

@@ -151,8 +151,20 @@ export function fanChartSvg(input: FanChartInput): string {
     const first = labels[0];
     const atOrigin = labels[g.origin] ?? "";
     const lastLabel = labels[labels.length - 1] ?? "";
+    // Three labels under the axis: the first period, the last observed one (at the divider) and the
+    // last forecast one. Widths are estimated (about 5.5 px a character at 9 px): when the divider's
+    // label would run into the last one it ends at the divider instead, and it is left out when it
+    // would then run into the first.
+    const width = (t: string): number => 5.5 * t.length;
+    const o = g.x(g.origin);
+    const firstEnd = g.plot.left + width(first) + 4;
+    const lastStart = g.plot.right - width(lastLabel) - 4;
     parts.push(`<text x="${g.plot.left}" y="${g.plot.bottom + 11}" font-size="9" fill="${COLORS.axis}">${esc(first)}</text>`);
-    parts.push(`<text x="${ox}" y="${g.plot.bottom + 11}" font-size="9" text-anchor="middle" fill="${COLORS.axis}">${esc(atOrigin)}</text>`);
+    if (o + width(atOrigin) / 2 <= lastStart && o - width(atOrigin) / 2 >= firstEnd) {
+      parts.push(`<text x="${ox}" y="${g.plot.bottom + 11}" font-size="9" text-anchor="middle" fill="${COLORS.axis}">${esc(atOrigin)}</text>`);
+    } else if (o - width(atOrigin) >= firstEnd && o <= lastStart + 2) {
+      parts.push(`<text x="${ox}" y="${g.plot.bottom + 11}" font-size="9" text-anchor="end" fill="${COLORS.axis}">${esc(atOrigin)}</text>`);
+    }
     parts.push(`<text x="${g.plot.right}" y="${g.plot.bottom + 11}" font-size="9" text-anchor="end" fill="${COLORS.axis}">${esc(lastLabel)}</text>`);
   }
   // legend (two rows in a narrow pane)

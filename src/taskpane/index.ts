@@ -5,7 +5,7 @@
 // for the manifest's script entry).
 import "../functions/functions";
 import { RawCell, parseLevels, backtestAsync } from "../engine";
-import { buildDemoWorkbook, DEMO_NOTICE } from "../demo/quillmere";
+import { buildDemoWorkbook, demoMonthlyCsv, DEMO_NOTICE } from "../demo/quillmere";
 import { auditLogView, groupChoices } from "./audit-view";
 import { checkRow, CheckRow, fanFormula, FanControls, fanView, FanView, PaneData, selectionProblem } from "./view-model";
 import { pastedData } from "./paste";
@@ -39,14 +39,9 @@ const state: State = { data: demoData(), series: 0, inExcel: false, lastView: nu
 const CHECK_SLICE_MS = 25;
 
 function demoData(): PaneData {
-  const wb = buildDemoWorkbook();
-  return {
-    source: `Not running inside Excel: showing the demo workbook. ${DEMO_NOTICE}`,
-    names: wb.columns.map((c) => c.name),
-    columns: wb.columns.map((c) => c.values as RawCell[]),
-    rowLabels: wb.months,
-    headerRows: 1,
-  };
+  // read like a pasted table, so the demo has its calendar too (period 12, dated forecast steps)
+  const d = pastedData(demoMonthlyCsv(buildDemoWorkbook()));
+  return { ...d, source: `Not running inside Excel: showing the demo workbook. ${DEMO_NOTICE}` };
 }
 
 function demoLog(): PaneData {

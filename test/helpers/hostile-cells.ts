@@ -148,6 +148,17 @@ export function required(good: fc.Arbitrary<unknown>): fc.Arbitrary<unknown> {
 
 export const goodLambda = fc.oneof(fc.double({ min: -6, max: 6, noNaN: true }), fc.constantFrom(0, 0.5, 1, -1, -5, 5));
 export const lambdaKeyword = fc.oneof(goodLambda, fc.constantFrom("auto", "guerrero", "mle", "none", "AUTO", " None ", "1/2", "log"));
+/**
+ * λ for functions that refit many times per call (a backtest refits at every origin, a total across
+ * series fits every column): mostly a number, sometimes a keyword or blank (then "auto", which fits
+ * every readable λ with the form), sometimes hostile — so 10,000 calls stay within CI's budget.
+ */
+export const lambdaMostlyNumber: fc.Arbitrary<unknown> = fc.oneof(
+  { weight: 6, arbitrary: fc.constantFrom(0, 0.5, 1, -0.5, 0.33) },
+  { weight: 1, arbitrary: fc.constant(null) },
+  { weight: 1, arbitrary: lambdaKeyword },
+  { weight: 1, arbitrary: anyCell },
+);
 export const goodLevel = fc.oneof(
   { weight: 6, arbitrary: fc.constantFrom(50, 80, 90, 95, 99) },
   { weight: 2, arbitrary: fc.double({ min: 1, max: 99.999, noNaN: true }) },

@@ -28,10 +28,11 @@ afterAll(async () => {
 test("the fan preview states the total over a window of steps and follows a change of window", async () => {
   await page.waitForSelector("#fw-check table");
   await page.waitForFunction(() => (document.getElementById("fw-total")?.textContent ?? "") !== "");
-  expect(await page.textContent("#fw-total")).toMatch(/^Total of steps 1–12: mean [\d,]+; median [\d,]+; 95% interval [\d,]+ to [\d,]+; the monthly medians add up to [\d,]+\.$/);
+  expect(await page.textContent("#fw-total")).toMatch(/^Total of steps 1–12 \(2026-01 to 2026-12\): mean [\d,]+; median [\d,]+; 95% interval [\d,]+ to [\d,]+; the monthly medians add up to [\d,]+\.$/);
   await page.fill("#fw-total-from", "8");
   await page.fill("#fw-horizon", "19");
-  await page.waitForFunction(() => /steps 8–19/.test(document.getElementById("fw-total")?.textContent ?? ""));
+  // the demo's history ends in December 2025: steps 8–19 are August 2026 to July 2027 (invented data)
+  await page.waitForFunction(() => /steps 8–19 \(2026-08 to 2027-07\)/.test(document.getElementById("fw-total")?.textContent ?? ""));
   expect(pageErrors).toEqual([]);
 });
 
