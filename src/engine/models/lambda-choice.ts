@@ -109,6 +109,22 @@ function fitConcrete(w: readonly number[], method: Exclude<MethodName, "auto">, 
   return isBenchmark(method) ? fitBenchmark(w, method, period) : fitSmoothing(w, method as SmoothingMethod, period, quick ? SCREENING : {});
 }
 
+/**
+ * One value of a form's profile likelihood in λ: the original-scale log-likelihood of a screening fit
+ * at λ, or −∞ where the transform or the fit fails (METHODS §7).
+ */
+function profileLoglik(y: readonly number[], form: Exclude<MethodName, "auto">, period: number, kind: Exclude<TransformKind, "none">, shift: number, lambda: number): number {
+  const t = makeTransform(kind, lambda, shift);
+  const w = transformSeries(y, t);
+  if (!w) return -Infinity;
+  try {
+    return originalScaleFit(fitConcrete(w, form, period, true), y, t, true).loglik;
+  } catch (e) {
+    if (e instanceof EngineError) return -Infinity;
+    throw e;
+  }
+}
+
 /** One (λ, form) pair tried by the `auto` rule. */
 export interface LambdaCandidate { lambda: number; method: Exclude<MethodName, "auto">; aicc: number; loglik: number }
 
@@ -200,17 +216,7 @@ export function chooseLambdaAuto(yAll: readonly number[], options: ModelLambdaOp
   const margin = sorted.length > 1 ? sorted[1] - sorted[0] : 0;
   const form = best.model.method;
   // Hold the winner to the chosen form's profile likelihood.
-  const ll = (lambda: number): number => {
-    const t = makeTransform(kind, lambda, shift);
-    const w = transformSeries(y, t);
-    if (!w) return -Infinity;
-    try {
-      return originalScaleFit(fitConcrete(w, form, period, true), y, t, true).loglik;
-    } catch (e) {
-      if (e instanceof EngineError) return -Infinity;
-      throw e;
-    }
-  };
+  const ll = (lambda: number): number => profileLoglik(y, form, period, kind, shift, lambda);
   const pts = READABLE_LAMBDAS.slice().sort((a, b) => a - b);
   const vals = pts.map((l) => {
     const c = candidates.find((cc) => cc.lambda === l && cc.method === form);
@@ -313,17 +319,7 @@ export function profileModelLambda(yAll: readonly number[], method: Exclude<Meth
     seen.set(lambda, v);
     return v;
   };
-  const llFit = (lambda: number): number => {
-    const t = makeTransform(kind, lambda, shift);
-    const w = transformSeries(y, t);
-    if (!w) return -Infinity;
-    try {
-      return originalScaleFit(fitConcrete(w, method, period, true), y, t, true).loglik;
-    } catch (e) {
-      if (e instanceof EngineError) return -Infinity;
-      throw e;
-    }
-  };
+  const llFit = (lambda: number): number => profileLoglik(y, method, period, kind, shift, lambda);
   let bounds: [number, number] = [options.lower ?? -1, options.upper ?? 2];
   const search = (b: [number, number]): { x: number; f: number } => {
     const n = 13;
