@@ -12,6 +12,10 @@ const only = (process.env.FANWISE_MUTATION_TESTS ?? "").split(",").map((s) => s.
 module.exports = {
   ...base,
   ...(only.length ? { testMatch: only.map((g) => `<rootDir>/${g}`) } : {}),
+  // ts-jest without type information (transpile only): the sources are type-checked by
+  // `npm run typecheck`, and the mutation tool's instrumented copy starts jest once per worker;
+  // transpiling alone cuts each start by more than half (measured: one engine test file 8.8 s → 3.5 s).
+  transform: { "^.+\\.ts$": ["ts-jest", { tsconfig: "tsconfig.json", diagnostics: false, isolatedModules: true }] },
   globalSetup: undefined,
   maxWorkers: 1, // the mutation tool runs its own parallel test processes (stryker.config.json concurrency)
   reporters: ["default"],

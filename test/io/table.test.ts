@@ -1,7 +1,7 @@
 // Reading whole tables: delimiter, which column is the period, number formats decided per column
 // from the whole column, rows that are not observations, and the messages for bad input. Rules are
 // common practice (how spreadsheet importers read exports); the expectation for each is stated.
-import { detectDelimiter, likelyDelimiter, parseCsv, readCsvText } from "../../src/io";
+import { CsvRecordReader, detectDelimiter, likelyDelimiter, parseCsv, readCsvText } from "../../src/io";
 
 describe("delimiters", () => {
   test("comma, semicolon and tab are detected from the first lines", () => {
@@ -101,5 +101,25 @@ describe("the period column", () => {
   });
   test("the first lines are kept for the delimiter message only (five)", () => {
     expect(parseCsv("a;b\n1;2\n3;4\n").sample).toEqual(["a;b", "1;2", "3;4"]);
+  });
+});
+
+describe("quoted fields (RFC 4180 §2.5–2.7)", () => {
+  test("a doubled quote inside a quoted field is one quote; delimiters and line breaks inside quotes are text", () => {
+    const t = readCsvText('month,"Harbour ""North"" shop","Mill Lane, east"\n2024-01,5,7\n2024-02,6,8\n');
+    expect(t.names).toEqual(['Harbour "North" shop', "Mill Lane, east"]);
+    expect(t.column(0)).toEqual([5, 6]);
+    expect(t.column(1)).toEqual([7, 8]);
+    // The same file split into pieces at every place (the reader is incremental: a quote pair may
+    // straddle two pieces).
+    const text = 'month;"a ""b""\nc"\n2024-01;"1,5"\n';
+    for (let cut = 1; cut < text.length; cut++) {
+      const got: string[][] = [];
+      const r = new CsvRecordReader((f) => got.push(f), ";", 1);
+      r.push(text.slice(0, cut));
+      r.push(text.slice(cut));
+      r.end();
+      expect(got).toEqual([["month", 'a "b"\nc'], ["2024-01", "1,5"]]);
+    }
   });
 });
