@@ -89,8 +89,63 @@ async function drawSample(folder, n) {
   return { total: mutants.length, mutants: pool.slice(0, Math.min(n, pool.length)) };
 }
 
+/**
+ * The engine's and the cell layer's fast test files: the wider set a folder's survivors are
+ * re-tested against (`--recheck`), so a mutant that another folder's tests catch counts as killed.
+ */
+const WIDE = [...new Set(Object.values(PLAN).flat())];
+
+/** Re-tests a folder's survivors (and mutants without coverage) against the wider test set. */
+function recheck(folder) {
+  const name = slug(folder);
+  const file = path.join(root, "reports", "mutation", `${name}.json`);
+  if (!fs.existsSync(file)) return;
+  const report = JSON.parse(fs.readFileSync(file, "utf8"));
+  const sampleFile = path.join(root, "reports", "mutation", `${name}.sample.json`);
+  const sample = fs.existsSync(sampleFile) ? JSON.parse(fs.readFileSync(sampleFile, "utf8")) : null;
+  const inSample = sample ? new Set(sample.mutants.map((m) => `${m.fileName}|${m.location.start.line + 1}:${m.location.start.column + 1}|${m.mutatorName}|${m.replacement}`)) : null;
+  const mutants = [];
+  for (const [fname, f] of Object.entries(report.files)) {
+    const rel = path.relative(root, path.resolve(root, fname));
+    for (const m of f.mutants) {
+      if (m.status !== "Survived" && m.status !== "NoCoverage") continue;
+      if (inSample && !inSample.has(`${rel}|${m.location.start.line}:${m.location.start.column}|${m.mutatorName}|${m.replacement}`)) continue;
+      // Back to the instrumenter's form: lines and columns 0-based.
+      mutants.push({ fileName: rel, mutatorName: m.mutatorName, replacement: m.replacement, location: { start: { line: m.location.start.line - 1, column: m.location.start.column - 1 }, end: { line: m.location.end.line - 1, column: m.location.end.column - 1 } } });
+    }
+  }
+  if (!mutants.length) return;
+  const listFile = path.join(root, "reports", "mutation", `${name}.recheck-list.json`);
+  fs.writeFileSync(listFile, JSON.stringify({ mutants }));
+  const config = {
+    ...base,
+    plugins: ["@stryker-mutator/*", "./scripts/mutation-sample.mjs"],
+    ignorers: ["fanwise-sample"],
+    incremental: false,
+    mutate: mutants.map((m) => `${m.fileName}:${m.location.start.line + 1}:${m.location.start.column}-${m.location.end.line + 1}:${m.location.end.column}`),
+    concurrency,
+    htmlReporter: { fileName: `reports/mutation/${name}.recheck.html` },
+    jsonReporter: { fileName: `reports/mutation/${name}.recheck.json` },
+    reporters: ["progress-append-only", "json"],
+  };
+  const configFile = path.join(root, "reports", `stryker-${name}.recheck.config.json`);
+  fs.writeFileSync(configFile, JSON.stringify(config, null, 2));
+  console.log(`\n== ${folder}: re-testing ${mutants.length} survivors against the wider test set`);
+  spawnSync(process.execPath, [path.join(root, "node_modules", "@stryker-mutator", "core", "bin", "stryker.js"), "run", configFile], {
+    cwd: root,
+    stdio: "inherit",
+    env: { ...process.env, FANWISE_MUTATION_TESTS: WIDE.join(","), FANWISE_MUTATION_SAMPLE: listFile },
+  });
+}
+
 (async () => {
-for (const folder of folders) {
+if (args.includes("--recheck")) {
+  for (const folder of folders) recheck(folder);
+  summarise();
+  return;
+}
+// --summary: only the table, from the reports already written.
+for (const folder of args.includes("--summary") ? [] : folders) {
   const name = slug(folder);
   let mutate = folder === "src/engine/models"
     ? [`${folder}/*.ts`]
@@ -158,25 +213,34 @@ for (const folder of Object.keys(PLAN)) {
   const wanted = sample
     ? new Set(sample.mutants.map((m) => key(path.resolve(root, m.fileName), { start: { line: m.location.start.line + 1, column: m.location.start.column + 1 }, end: { line: m.location.end.line + 1, column: m.location.end.column + 1 } }, m.mutatorName, m.replacement)))
     : null;
-  const n = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0, Ignored: 0, CompileError: 0, RuntimeError: 0 };
+  const n = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0, Ignored: 0, CompileError: 0, RuntimeError: 0, Wider: 0 };
+  // Survivors that the wider test set killed (--recheck), by location and mutation.
+  const recheckFile = path.join(root, "reports", "mutation", `${slug(folder)}.recheck.json`);
+  const killedWider = new Set();
+  if (fs.existsSync(recheckFile)) {
+    for (const [fname, f] of Object.entries(JSON.parse(fs.readFileSync(recheckFile, "utf8")).files)) {
+      for (const m of f.mutants) if (m.status === "Killed" || m.status === "Timeout") killedWider.add(key(path.resolve(root, fname), m.location, m.mutatorName, m.replacement));
+    }
+  }
   let matched = 0;
   for (const [fname, f] of Object.entries(report.files)) {
     for (const m of f.mutants) {
       if (wanted && !wanted.has(key(path.resolve(root, fname), m.location, m.mutatorName, m.replacement))) continue;
       matched++;
-      n[m.status] = (n[m.status] ?? 0) + 1;
-      if (m.status === "Survived" || m.status === "NoCoverage") {
+      const status = (m.status === "Survived" || m.status === "NoCoverage") && killedWider.has(key(path.resolve(root, fname), m.location, m.mutatorName, m.replacement)) ? "Wider" : m.status;
+      n[status] = (n[status] ?? 0) + 1;
+      if (status === "Survived" || status === "NoCoverage") {
         survivors.push(`${path.relative(root, path.resolve(root, fname))}:${m.location.start.line}:${m.location.start.column} ${m.status} ${m.mutatorName}: ${String(m.replacement).replace(/\s+/g, " ").slice(0, 100)}`);
       }
     }
   }
-  const detected = n.Killed + n.Timeout;
+  const detected = n.Killed + n.Timeout + n.Wider;
   const valid = detected + n.Survived + n.NoCoverage;
   const of = sample ? `${matched} of ${sample.total} (sample, seed ${sample.seed})` : "all";
   const missing = sample && matched < sample.mutants.length ? ` (${sample.mutants.length - matched} sampled not found in the report)` : "";
-  rows.push(`| ${folder} | ${of}${missing} | ${valid} | ${n.Killed} | ${n.Timeout} | ${n.Survived} | ${n.NoCoverage} | ${n.Ignored} | ${valid ? ((100 * detected) / valid).toFixed(1) : "—"}% | ${valid ? wilson(detected, valid) : "—"} |`);
+  rows.push(`| ${folder} | ${of}${missing} | ${valid} | ${n.Killed} | ${n.Timeout} | ${n.Wider} | ${n.Survived} | ${n.NoCoverage} | ${n.Ignored} | ${valid ? ((100 * detected) / valid).toFixed(1) : "—"}% | ${valid ? wilson(detected, valid) : "—"} |`);
 }
-const table = ["| Folder | Mutants tested | Valid | Killed | Timed out | Survived | No coverage | Ignored (static) | Score | 95% interval |", "|---|---|---|---|---|---|---|---|---|---|", ...rows].join("\n");
+const table = ["| Folder | Mutants tested | Valid | Killed | Timed out | Killed by other folders' tests | Survived | No coverage | Ignored (static) | Score | 95% interval |", "|---|---|---|---|---|---|---|---|---|---|---|", ...rows].join("\n");
 fs.writeFileSync(path.join(root, "reports", "mutation", "summary.md"), `${table}\n\nSurvivors:\n${survivors.join("\n")}\n`);
 console.log(`\n${table}\n\nSurvivors (${survivors.length}): reports/mutation/summary.md`);
 }
