@@ -14,6 +14,7 @@ import { solveSymmetric } from "../../_lib/cholesky";
 import { choleskyLower } from "../../_lib/cholesky-factor";
 import type { FittedModel, StepMoments } from "../types";
 import { armaFilter, armaSystem, ArmaFilterResult, ArmaSystem } from "./kalman";
+import { ArmaLikelihood } from "./likelihood";
 import { ArimaOrder, arimaTitle, formatArimaOrder } from "./order";
 import { applyDifference, differencingPolynomial, expandAr, expandMa, pacfToAr, toUnit } from "./polynomial";
 
@@ -147,14 +148,8 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
     const d = o.p + o.q + o.P + o.Q;
     const mu0 = o.constant ? observedMean(x) : 0;
     const cssObjective = (u: number[]): number => Math.log(css(x, unpack(u, o), o.m, mu0));
-    const mlObjective = (u: number[]): number => {
-      try {
-        const f = armaFilter(system(unpack(u, o), o.m), x, muMode, false);
-        return -f.loglik;
-      } catch {
-        return Infinity;
-      }
-    };
+    const likelihood = new ArmaLikelihood(x, o);
+    const mlObjective = (u: number[]): number => likelihood.negLoglik(u);
     const zero = new Array(d).fill(0);
     const starts: number[][] = [zero];
     if (d > 0) {

@@ -61,7 +61,36 @@ export function armaSystem(ar: readonly number[], ma: readonly number[]): ArmaSy
  * follows from P₀ = T P₀ T′ + RR′ read element by element. Null when the AR part is not stationary.
  */
 function stationaryCovariance(ar: readonly number[], R: Float64Array, r: number): Float64Array | null {
+  const P = new Float64Array(r * r);
+  const row = new Float64Array(r);
+  if (!stationaryFirstRow(ar, ar.length, R, r, row)) return null;
   const p = ar.length;
+  for (let j = 0; j < r; j++) {
+    P[j] = row[j];
+    P[j * r] = row[j];
+  }
+  const P00 = P[0];
+  for (let i = 1; i < r; i++) {
+    for (let j = i; j < r; j++) {
+      const ai = i - 1 < p ? ar[i - 1] : 0;
+      const aj = j - 1 < p ? ar[j - 1] : 0;
+      const v = P[(i - 1) * r + j - 1] - ai * aj * P00 - ai * P[j] - aj * P[i * r] - R[i - 1] * R[j - 1];
+      P[i * r + j] = v;
+      P[j * r + i] = v;
+    }
+  }
+  for (let i = 0; i < r * r; i++) if (!Number.isFinite(P[i])) return null;
+  for (let i = 0; i < r; i++) if (!(P[i * r + i] >= -1e-9 * P00)) return null;
+  return P;
+}
+
+/**
+ * The first row (= first column) of the stationary state covariance P₀ (units of σ²) of an ARMA
+ * with AR coefficients ar[0..p) and R = (1, b₁, …, b_{r−1}), into `out` (length ≥ r), from the
+ * autocovariances as in stationaryCovariance (Brockwell & Davis 1991, §3.3). This is all the
+ * Chandrasekhar recursions need. False when the AR part is not stationary.
+ */
+export function stationaryFirstRow(ar: ArrayLike<number>, p: number, R: ArrayLike<number>, r: number, out: Float64Array): boolean {
   const q = r - 1; // R = (1, b_1, …, b_{r−1}), zeros past the MA order
   // ψ weights up to lag r
   const psi = new Float64Array(r + 1);
@@ -82,7 +111,7 @@ function stationaryCovariance(ar: readonly number[], R: Float64Array, r: number)
     rhs[k] = v;
   }
   const g0 = solveGeneral(A, rhs, d);
-  if (g0 === null || !(g0[0] > 0)) return null;
+  if (g0 === null || !(g0[0] > 0)) return false;
   const gamma = new Float64Array(r + 2);
   for (let k = 0; k <= Math.min(p, r + 1); k++) gamma[k] = g0[k];
   for (let k = p + 1; k <= r + 1; k++) {
@@ -91,26 +120,13 @@ function stationaryCovariance(ar: readonly number[], R: Float64Array, r: number)
     for (let j = k; j <= q; j++) v += (j === 0 ? 1 : R[j]) * psi[j - k];
     gamma[k] = v;
   }
-  const P = new Float64Array(r * r);
   for (let j = 0; j < r; j++) {
     let v = 0;
     for (let k = j; k < r; k++) v += (k < p ? ar[k] : 0) * gamma[1 + k - j] + R[k] * psi[k - j];
-    P[j] = v;
-    P[j * r] = v;
+    if (!Number.isFinite(v)) return false;
+    out[j] = v;
   }
-  const P00 = P[0];
-  for (let i = 1; i < r; i++) {
-    for (let j = i; j < r; j++) {
-      const ai = i - 1 < p ? ar[i - 1] : 0;
-      const aj = j - 1 < p ? ar[j - 1] : 0;
-      const v = P[(i - 1) * r + j - 1] - ai * aj * P00 - ai * P[j] - aj * P[i * r] - R[i - 1] * R[j - 1];
-      P[i * r + j] = v;
-      P[j * r + i] = v;
-    }
-  }
-  for (let i = 0; i < r * r; i++) if (!Number.isFinite(P[i])) return null;
-  for (let i = 0; i < r; i++) if (!(P[i * r + i] >= -1e-9 * P00)) return null;
-  return P;
+  return true;
 }
 
 /** Gaussian elimination with partial pivoting; null when singular. */
