@@ -71,31 +71,6 @@ function system(p: Omit<ArimaParams, "mu">, m: number): ArmaSystem {
   return armaSystem(expandAr(p.phi, p.Phi, m), expandMa(p.theta, p.Theta, m));
 }
 
-/** Conditional sum of squares of the differences (pre-sample errors zero), for a starting point. */
-function css(x: readonly number[], p: Omit<ArimaParams, "mu">, m: number, mu: number): number {
-  const a = expandAr(p.phi, p.Phi, m);
-  const b = expandMa(p.theta, p.Theta, m);
-  const e = new Float64Array(x.length);
-  let s = 0;
-  let count = 0;
-  for (let t = a.length; t < x.length; t++) {
-    if (!(x[t] === x[t])) continue;
-    let v = x[t] - mu;
-    let ok = true;
-    for (let k = 0; k < a.length; k++) {
-      const xv = x[t - k - 1];
-      if (!(xv === xv)) { ok = false; break; }
-      v -= a[k] * (xv - mu);
-    }
-    if (!ok) continue;
-    for (let j = 0; j < b.length && t - j - 1 >= 0; j++) v -= b[j] * e[t - j - 1];
-    e[t] = v;
-    s += v * v;
-    count++;
-  }
-  return count > 0 ? s / count : Infinity;
-}
-
 function observedMean(x: readonly number[]): number {
   let s = 0, n = 0;
   for (const v of x) if (v === v) { s += v; n++; }
@@ -147,8 +122,8 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
   } else {
     const d = o.p + o.q + o.P + o.Q;
     const mu0 = o.constant ? observedMean(x) : 0;
-    const cssObjective = (u: number[]): number => Math.log(css(x, unpack(u, o), o.m, mu0));
     const likelihood = new ArmaLikelihood(x, o);
+    const cssObjective = (u: number[]): number => Math.log(likelihood.css(u, mu0));
     const mlObjective = (u: number[]): number => likelihood.negLoglik(u);
     const zero = new Array(d).fill(0);
     const starts: number[][] = [zero];
@@ -158,7 +133,7 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
     }
     let best = { x: zero, fx: mlObjective(zero) };
     for (const s of starts) {
-      const r = d > 0 ? minimizeBfgs(mlObjective, s, 1e-6, 1e-14, 300) : { x: s, fx: mlObjective(s) };
+      const r = d > 0 ? minimizeBfgs(mlObjective, s, 1e-6, 1e-11, 300) : { x: s, fx: mlObjective(s) };
       if (r.fx < best.fx) best = { x: r.x, fx: r.fx };
     }
     if (!Number.isFinite(best.fx)) throw new EngineError("domain", `${arimaTitle(o)} could not be fitted to this series (the likelihood is not finite anywhere tried). Try a smaller order.`);

@@ -57,6 +57,10 @@ export class ArmaLikelihood {
   private readonly vx: Float64Array;
   private readonly v1: Float64Array;
   private readonly Fs: Float64Array;
+  private readonly e: Float64Array;
+  /** Lags (0-based) where the expanded AR and MA polynomials can be non-zero. */
+  private readonly arLags: Int32Array;
+  private readonly maLags: Int32Array;
   /** Whether the last evaluation froze the covariance recursion, and from which step. */
   steadyFrom = -1;
   /** Set false to run every step of the covariance recursion (for the tests). */
@@ -91,6 +95,9 @@ export class ArmaLikelihood {
     this.vx = new Float64Array(order.constant ? n : 0);
     this.v1 = new Float64Array(order.constant ? n : 0);
     this.Fs = new Float64Array(order.constant ? n : 0);
+    this.e = new Float64Array(n);
+    this.arLags = Int32Array.from(lagsOf(order.p, order.P, order.m));
+    this.maLags = Int32Array.from(lagsOf(order.q, order.Q, order.m));
   }
 
   /** Number of unconstrained parameters (p + q + P + Q; the mean is concentrated out). */
@@ -105,6 +112,43 @@ export class ArmaLikelihood {
     if (!this.complete) return this.viaFullFilter();
     const ll = this.chandrasekhar();
     return Number.isFinite(ll) ? -ll : Infinity;
+  }
+
+  /**
+   * Conditional sum of squares per observed difference at u (pre-sample errors zero, the mean
+   * fixed at `mu`), for the optimiser's start; the same sum as fit.ts computed before, with the
+   * lags where the expanded polynomials are structurally zero skipped.
+   */
+  css(u: readonly number[], mu: number): number {
+    this.setParameters(u);
+    const { x, ar, R, e, arLags, maLags } = this;
+    const n = x.length;
+    const p = this.pStar;
+    e.fill(0);
+    let s = 0;
+    let count = 0;
+    for (let t = p; t < n; t++) {
+      const xt = x[t];
+      if (!(xt === xt)) continue;
+      let v = xt - mu;
+      let ok = true;
+      for (let i = 0; i < arLags.length; i++) {
+        const k = arLags[i];
+        const xv = x[t - k - 1];
+        if (!(xv === xv)) { ok = false; break; }
+        v -= ar[k] * (xv - mu);
+      }
+      if (!ok) continue;
+      for (let i = 0; i < maLags.length; i++) {
+        const j = maLags[i];
+        if (t - j - 1 < 0) break;
+        v -= R[j + 1] * e[t - j - 1];
+      }
+      e[t] = v;
+      s += v * v;
+      count++;
+    }
+    return count > 0 ? s / count : Infinity;
   }
 
   /** u → coefficients, written into phi, Phi, theta, Theta, then expanded into ar and R. */
@@ -283,4 +327,11 @@ export class ArmaLikelihood {
     const sigma2 = ssq / n;
     return sigma2 > 0 && Number.isFinite(sumLogF) ? -0.5 * (n * (LOG_2PI + log(sigma2) + 1) + sumLogF) : -Infinity;
   }
+}
+
+/** 0-based lags k of the expanded polynomial (coefficient of B^{k+1}) that can be non-zero, ascending. */
+function lagsOf(p: number, P: number, m: number): number[] {
+  const set = new Set<number>();
+  for (let j = 0; j <= P; j++) for (let k = 0; k <= p; k++) if (j + k > 0) set.add(k + j * m - 1);
+  return [...set].sort((a, b) => a - b);
 }
