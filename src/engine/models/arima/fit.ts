@@ -128,7 +128,8 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
     const zero = new Array(d).fill(0);
     const starts: number[][] = [zero];
     if (d > 0) {
-      const cssFit = minimizeBfgs(cssObjective, zero, 1e-6, 1e-12, 100);
+      // Only a start: looser than the likelihood's tolerances (its gradient is of log CSS, O(1)).
+      const cssFit = minimizeBfgs(cssObjective, zero, 1e-4, 1e-8, 100);
       if (Number.isFinite(cssFit.fx)) starts.unshift(cssFit.x.map((v) => Math.max(-8, Math.min(8, v))));
     }
     let best = { x: zero, fx: mlObjective(zero) };
