@@ -211,16 +211,13 @@ function hessianErrors(x: readonly number[], p: ArimaParams, o: ArimaOrder): Rec
   const vec = [...p.phi, ...p.theta, ...p.Phi, ...p.Theta, ...(o.constant ? [p.mu] : [])];
   const d = vec.length;
   if (d === 0) return {};
+  const likelihood = new ArmaLikelihood(x, o);
   const f = (v: number[]): number => {
     let i = 0;
     const take = (k: number): number[] => { const s = v.slice(i, i + k); i += k; return s; };
     const phi = take(o.p), theta = take(o.q), Phi = take(o.P), Theta = take(o.Q);
     const mu = o.constant ? v[i] : 0;
-    try {
-      return -armaFilter(system({ phi, Phi, theta, Theta }, o.m), x, o.constant ? mu : "none", false).loglik;
-    } catch {
-      return NaN;
-    }
+    return likelihood.negLoglikAt(phi, Phi, theta, Theta, mu);
   };
   const H = new Float64Array(d * d);
   const steps = vec.map((v) => 1e-4 * Math.max(1, Math.abs(v)));

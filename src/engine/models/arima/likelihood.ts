@@ -32,7 +32,10 @@ export class ArmaLikelihood {
   evaluations = 0;
   private readonly x: readonly number[];
   private readonly o: ArimaOrder;
-  private readonly withMean: boolean;
+  /** Whether the mean is concentrated out (a constant in the order, not fixed by the caller). */
+  private withMean: boolean;
+  /** The mean subtracted when it is not concentrated out. */
+  private mu0 = 0;
   private readonly complete: boolean;
   private readonly r: number;
   private readonly pStar: number;
@@ -109,6 +112,30 @@ export class ArmaLikelihood {
   negLoglik(u: readonly number[]): number {
     this.evaluations++;
     this.setParameters(u);
+    this.withMean = this.o.constant;
+    this.mu0 = 0;
+    return this.evaluate();
+  }
+
+  /**
+   * −ℓ at given coefficients (AR-form φ, Φ; MA θ, Θ, as in ArimaParams) with the mean fixed at `mu`
+   * (σ² still concentrated out), for the Hessian of the standard errors; NaN where the likelihood is
+   * not finite. The AR side must be stationary (else NaN).
+   */
+  negLoglikAt(phi: readonly number[], Phi: readonly number[], theta: readonly number[], Theta: readonly number[], mu: number): number {
+    this.evaluations++;
+    this.phi.set(phi);
+    this.Phi.set(Phi);
+    this.theta.set(theta);
+    this.Theta.set(Theta);
+    this.expand();
+    this.withMean = false;
+    this.mu0 = mu;
+    const v = this.evaluate();
+    return Number.isFinite(v) ? v : NaN;
+  }
+
+  private evaluate(): number {
     if (!this.complete) return this.viaFullFilter();
     const ll = this.chandrasekhar();
     return Number.isFinite(ll) ? -ll : Infinity;
@@ -159,7 +186,12 @@ export class ArmaLikelihood {
     i = this.pacfInto(u, i, o.P, this.Phi, 1);
     i = this.pacfInto(u, i, o.q, this.theta, -1);
     this.pacfInto(u, i, o.Q, this.Theta, -1);
-    const { ar, R, phi, Phi, theta, Theta } = this;
+    this.expand();
+  }
+
+  /** phi, Phi, theta, Theta → the expanded ar and R. */
+  private expand(): void {
+    const { o, ar, R, phi, Phi, theta, Theta } = this;
     const m = o.m;
     ar.fill(0);
     R.fill(0);
@@ -197,7 +229,7 @@ export class ArmaLikelihood {
     const arr = Array.from(this.ar.subarray(0, this.pStar));
     const ma = Array.from(this.R.subarray(1, this.qStar + 1));
     try {
-      const f = armaFilter(armaSystem(arr, ma), this.x, o.constant ? "estimate" : "none", true);
+      const f = armaFilter(armaSystem(arr, ma), this.x, this.withMean ? "estimate" : o.constant ? this.mu0 : "none", true);
       return Number.isFinite(f.loglik) ? -f.loglik : Infinity;
     } catch {
       return Infinity;
@@ -234,12 +266,13 @@ export class ArmaLikelihood {
     let ssq = 0;
     const withMean = this.withMean;
     const { vx, v1, Fs } = this;
+    const mu0 = this.mu0;
     let t = 0;
     this.steadyFrom = -1;
     const allowSteady = this.allowSteady;
     for (; t < n; t++) {
       if (!(F > 0)) return -Infinity;
-      const e = x[t] - a[0];
+      const e = x[t] - mu0 - a[0];
       const g = e / F;
       sumLogF += log(F);
       const z = W[0];
@@ -294,7 +327,7 @@ export class ArmaLikelihood {
       if (!(F > 0)) return -Infinity;
       const logF = log(F);
       for (; t < n; t++) {
-        const e = x[t] - a[0];
+        const e = x[t] - mu0 - a[0];
         const g = e / F;
         sumLogF += logF;
         const a0 = a[0];
