@@ -59,14 +59,14 @@ const FORWARD_ABOVE = 1;
 
 /**
  * Minimises f from x0. Stops when the gradient's largest entry is below `gTol`, when a step
- * changes f by less than `fTol`·(1 + |f|) while the gradient is below √gTol, or after
- * `maxIterations`. The first step from an identity inverse Hessian is at most 1 long in every
+ * changes f by less than `fTol`·(1 + |f|) while the gradient is below √gTol, when `stop(x, f)`
+ * says so after a step (converged stays false), or after `maxIterations`. The first step from an identity inverse Hessian is at most 1 long in every
  * coordinate, and the identity is scaled by s′y/y′y before the first update (Shanno & Phua 1978;
  * Nocedal & Wright 2006, eq. 6.20); gradients are forward differences while their largest entry
  * exceeds 1 and central differences after.
  * @example minimizeBfgs((x) => (x[0] - 1) ** 2 + 10 * (x[1] + 2) ** 2, [0, 0]).x // ≈ [1, −2]
  */
-export function minimizeBfgs(f: (x: number[]) => number, x0: readonly number[], gTol = 1e-7, fTol = 1e-13, maxIterations = 200): BfgsResult {
+export function minimizeBfgs(f: (x: number[]) => number, x0: readonly number[], gTol = 1e-7, fTol = 1e-13, maxIterations = 200, stop?: (x: readonly number[], fx: number) => boolean): BfgsResult {
   const d = x0.length;
   let evaluations = 0;
   const F = (x: number[]): number => {
@@ -131,6 +131,7 @@ export function minimizeBfgs(f: (x: number[]) => number, x0: readonly number[], 
     x = xn;
     g = gn;
     fx = fn;
+    if (stop && stop(x, fx)) break;
     if (small && Math.max(...g.map(Math.abs)) < Math.sqrt(gTol)) {
       converged = true;
       break;

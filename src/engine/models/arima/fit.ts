@@ -133,9 +133,15 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
       if (Number.isFinite(cssFit.fx)) starts.unshift(cssFit.x.map((v) => Math.max(-8, Math.min(8, v))));
     }
     let best = { x: zero, fx: mlObjective(zero) };
+    let first: { x: number[]; fx: number } | null = null;
+    // A later start whose path comes within 0.01 (in every unconstrained coordinate) of the first
+    // start's optimum, no more than 0.01 above it in −ℓ, is on its way to the same optimum: stopped.
+    const joins = (u: readonly number[], fu: number): boolean =>
+      first !== null && Number.isFinite(first.fx) && fu - first.fx < 0.01 && u.every((v, i) => Math.abs(v - (first as { x: number[] }).x[i]) < 0.01);
     for (const s of starts) {
-      const r = d > 0 ? minimizeBfgs(mlObjective, s, 1e-6, 1e-11, 300) : { x: s, fx: mlObjective(s) };
+      const r = d > 0 ? minimizeBfgs(mlObjective, s, 1e-6, 1e-11, 300, joins) : { x: s, fx: mlObjective(s) };
       if (r.fx < best.fx) best = { x: r.x, fx: r.fx };
+      if (first === null) first = { x: r.x, fx: r.fx };
     }
     if (!Number.isFinite(best.fx)) throw new EngineError("domain", `${arimaTitle(o)} could not be fitted to this series (the likelihood is not finite anywhere tried). Try a smaller order.`);
     params = unpack(best.x, o);
