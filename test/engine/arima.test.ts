@@ -93,6 +93,8 @@ describe("ARIMA algebra (published identities)", () => {
       }
     }
   });
+  // The optimiser's P₀ first row comes from the step-down/Levinson autocovariances, the full filter's
+  // P₀ from the linear autocovariance system, so this also checks one against the other.
   test("the optimiser's likelihood (Chandrasekhar recursions, frozen once the covariance has converged) equals the full Kalman filter's (Harvey 1989) to 1e-10", () => {
     const air = dataset("AirPassengers").map(Math.log);
     const airDx = air.slice(13).map((v, t) => v - air[t + 12] - air[t + 1] + air[t]);
@@ -101,6 +103,7 @@ describe("ARIMA algebra (published identities)", () => {
       [airDx, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false }, [-0.45, -0.7]],
       [airDx, { p: 2, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: true }, [0.3, -0.2, -0.4, -0.6]],
       [airDx, { p: 1, d: 1, q: 0, P: 1, D: 1, Q: 0, m: 12, constant: false }, [-0.3, -0.5]],
+      [airDx, { p: 1, d: 1, q: 1, P: 2, D: 1, Q: 1, m: 12, constant: true }, [0.5, -0.4, 0.3, -0.8, -0.6]],
       [nile, { p: 1, d: 0, q: 1, P: 0, D: 0, Q: 0, m: 1, constant: true }, [1.2, -0.6]],
       [nile, { p: 2, d: 0, q: 0, P: 0, D: 0, Q: 0, m: 1, constant: true }, [0.4, 0.2]],
       [nile, { p: 0, d: 0, q: 2, P: 0, D: 0, Q: 0, m: 1, constant: false }, [0.9, 0.5]],

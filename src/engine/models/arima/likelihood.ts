@@ -11,7 +11,7 @@
 // precision (F_t ≥ 1 in units of σ², and the increment of every later step is smaller still while
 // the filter converges), so they are frozen and only the state update runs. The frozen and the full
 // recursions are compared in the tests (to 1e-10).
-import { armaFilter, armaSystem, stationaryFirstRow } from "./kalman";
+import { armaFilter, armaSystem } from "./kalman";
 import type { ArimaOrder } from "./order";
 import { toUnit } from "./polynomial";
 
@@ -64,6 +64,13 @@ export class ArmaLikelihood {
   /** Lags (0-based) where the expanded AR and MA polynomials can be non-zero. */
   private readonly arLags: Int32Array;
   private readonly maLags: Int32Array;
+  /** Lags j with R_j possibly non-zero (0 first). */
+  private readonly maIdx: Int32Array;
+  // buffers of the autocovariances (firstRow)
+  private readonly levels: Float64Array;
+  private readonly gu: Float64Array;
+  private readonly gx: Float64Array;
+  private readonly psi: Float64Array;
   /** Whether the last evaluation froze the covariance recursion, and from which step. */
   steadyFrom = -1;
   /** Set false to run every step of the covariance recursion (for the tests). */
@@ -101,6 +108,12 @@ export class ArmaLikelihood {
     this.e = new Float64Array(n);
     this.arLags = Int32Array.from(lagsOf(order.p, order.P, order.m));
     this.maLags = Int32Array.from(lagsOf(order.q, order.Q, order.m));
+    this.maIdx = Int32Array.from([0, ...Array.from(this.maLags, (k) => k + 1)]);
+    const p = this.pStar;
+    this.levels = new Float64Array((p + 1) * (p + 1));
+    this.gu = new Float64Array(2 * r + 2);
+    this.gx = new Float64Array(r + 2);
+    this.psi = new Float64Array(r + 1);
   }
 
   /** Number of unconstrained parameters (p + q + P + Q; the mean is concentrated out). */
@@ -236,6 +249,73 @@ export class ArmaLikelihood {
     }
   }
 
+  /**
+   * The first row of the stationary P₀ (units of σ²) into col, in O(p² + r·(p + s²)) for p AR and s
+   * non-zero MA coefficients, instead of solving the (p+1)-square autocovariance system: the AR part
+   * alone, u_t = Σ a_i u_{t−i} + ε_t, has partial autocorrelations κ_k from the step-down recursion
+   * (Barndorff-Nielsen & Schou 1973) and γ_u(0) = 1/Π(1 − κ_k²); the order-k predictors a^{(k)} met on
+   * the way give γ_u(k) = Σ_j a^{(k)}_j γ_u(k − j) (Durbin 1960's recursion read forwards), and the AR
+   * recursion continues γ_u past lag p. The ARMA x_t = Σ_i R_i u_{t−i} then has
+   * γ_x(k) = Σ_{i,j} R_i R_j γ_u(k − i + j), and the first row follows as in kalman.ts's
+   * stationaryFirstRow. False when the AR part is not stationary (some |κ_k| ≥ 1).
+   */
+  private firstRow(): boolean {
+    const { r, ar, R, col, levels, gu, gx, psi, maIdx } = this;
+    const p = this.pStar;
+    const w = p + 1;
+    // step-down: levels[k*w + j] = a^{(k)}_j (j = 1..k)
+    for (let j = 1; j <= p; j++) levels[p * w + j] = ar[j - 1];
+    let prod = 1;
+    for (let k = p; k >= 1; k--) {
+      const kap = levels[k * w + k];
+      if (!(abs(kap) < 1)) return false;
+      const den = 1 - kap * kap;
+      prod *= den;
+      for (let j = 1; j < k; j++) levels[(k - 1) * w + j] = (levels[k * w + j] + kap * levels[k * w + k - j]) / den;
+    }
+    const L = gu.length - 1;
+    gu[0] = 1 / prod;
+    if (!Number.isFinite(gu[0])) return false;
+    for (let k = 1; k <= p; k++) {
+      let v = 0;
+      for (let j = 1; j <= k; j++) v += levels[k * w + j] * gu[k - j];
+      gu[k] = v;
+    }
+    for (let l = p + 1; l <= L; l++) {
+      let v = 0;
+      for (let i = 1; i <= p; i++) v += ar[i - 1] * gu[l - i];
+      gu[l] = v;
+    }
+    const s = maIdx.length;
+    for (let k = 0; k <= r + 1; k++) {
+      let v = 0;
+      for (let a = 0; a < s; a++) {
+        const i = maIdx[a];
+        const Ri = R[i];
+        for (let b = 0; b < s; b++) {
+          const j = maIdx[b];
+          const lag = k - i + j;
+          v += Ri * R[j] * gu[lag < 0 ? -lag : lag];
+        }
+      }
+      gx[k] = v;
+    }
+    // ψ weights up to lag r
+    for (let j = 0; j <= r; j++) {
+      let v = j === 0 ? 1 : j < r ? R[j] : 0;
+      const top = j < p ? j : p;
+      for (let i = 1; i <= top; i++) v += ar[i - 1] * psi[j - i];
+      psi[j] = v;
+    }
+    for (let j = 0; j < r; j++) {
+      let v = 0;
+      for (let k = j; k < r; k++) v += ar[k] * gx[1 + k - j] + R[k] * psi[k - j];
+      if (!Number.isFinite(v)) return false;
+      col[j] = v;
+    }
+    return true;
+  }
+
   /** ℓ by the Chandrasekhar recursions (σ² and the mean concentrated out). */
   private chandrasekhar(): number {
     const { r, ar, R, col, a, c, K, W, x } = this;
@@ -248,7 +328,7 @@ export class ArmaLikelihood {
         for (let k = 0; i + k < r; k++) s += R[i + k] * R[k];
         col[i] = s;
       }
-    } else if (!stationaryFirstRow(ar, p, R, r, col)) {
+    } else if (!this.firstRow()) {
       return -Infinity;
     }
     // K_1 = T P₀ e₁ (T v)[i] = a_i v[0] + v[i+1]; W_1 = K_1, M_1 = −1/F_1.
