@@ -192,23 +192,27 @@ export function armaFilter(sys: ArmaSystem, x: readonly number[], mu: number | "
   const mu0 = typeof mu === "number" ? mu : 0;
   const a = new Float64Array(r); // state for the data
   const c = new Float64Array(r); // state for the column of ones (GLS for μ)
-  const P = P0.slice();
+  // P: predicted covariance P_{t|t−1}; Q: filtered P_{t|t}; TP = T Q; Pn: the next predicted one.
+  let P = P0.slice();
+  let Pn = new Float64Array(r * r);
+  const Q = new Float64Array(r * r);
   const TP = new Float64Array(r * r);
   const vx = new Float64Array(n);
   const v1 = new Float64Array(n);
   const F = new Float64Array(n);
+  const arPad = new Float64Array(r);
+  for (let i = 0; i < p; i++) arPad[i] = ar[i];
   let sumLogF = 0;
   let nobs = 0;
   let steady = false;
   const RR = new Float64Array(r * r);
   for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) RR[i * r + j] = R[i] * R[j];
   const Pcol = new Float64Array(r);
-  const Pprev = new Float64Array(r * r);
   for (let t = 0; t < n; t++) {
     const xt = x[t];
     const observed = xt === xt; // not NaN
+    let source = P; // the covariance the prediction starts from (filtered when observed)
     if (observed) {
-      if (!steady) Pprev.set(P);
       const f = P[0];
       F[t] = f;
       const e = xt - mu0 - a[0];
@@ -224,7 +228,17 @@ export function armaFilter(sys: ArmaSystem, x: readonly number[], mu: number | "
         if (withOnes) c[i] += (Pcol[i] * e1) / f;
       }
       if (!steady) {
-        for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) P[i * r + j] -= (Pcol[i] * Pcol[j]) / f;
+        // Q = P − P e₁ e₁′ P / f (symmetric)
+        const inv = 1 / f;
+        for (let i = 0; i < r; i++) {
+          const pi = Pcol[i] * inv;
+          for (let j = i; j < r; j++) {
+            const v = P[i * r + j] - pi * Pcol[j];
+            Q[i * r + j] = v;
+            Q[j * r + i] = v;
+          }
+        }
+        source = Q;
       }
     } else {
       vx[t] = NaN;
@@ -235,23 +249,34 @@ export function armaFilter(sys: ArmaSystem, x: readonly number[], mu: number | "
     predictState(a, ar, r, p);
     if (withOnes) predictState(c, ar, r, p);
     if (!steady || !observed) {
-      // P ← T P T′ + RR′, using T's structure: (TM)[i][j] = a_i M[0][j] + M[i+1][j].
-      for (let i = 0; i < r; i++) {
-        const ai = i < p ? ar[i] : 0;
-        for (let j = 0; j < r; j++) TP[i * r + j] = ai * P[j] + (i + 1 < r ? P[(i + 1) * r + j] : 0);
+      // P ← T S T′ + RR′ (S = Q or P), using T's structure: (TM)[i][j] = a_i M[0][j] + M[i+1][j].
+      const S = source;
+      for (let i = 0; i + 1 < r; i++) {
+        const ai = arPad[i];
+        const row = i * r, below = (i + 1) * r;
+        for (let j = 0; j < r; j++) TP[row + j] = ai * S[j] + S[below + j];
       }
+      {
+        const ai = arPad[r - 1];
+        const row = (r - 1) * r;
+        for (let j = 0; j < r; j++) TP[row + j] = ai * S[j];
+      }
+      // (TP T′)[i][j] = TP[i][0] a_j + TP[i][j+1]; symmetric, so the upper triangle is mirrored.
       let change = 0;
       for (let i = 0; i < r; i++) {
-        for (let j = 0; j < r; j++) {
-          const aj = j < p ? ar[j] : 0;
-          const v = TP[i * r] * aj + (j + 1 < r ? TP[i * r + j + 1] : 0) + RR[i * r + j];
-          if (observed) {
-            const dlt = abs(v - Pprev[i * r + j]);
-            if (dlt > change) change = dlt;
-          }
-          P[i * r + j] = v;
+        const row = i * r;
+        const t0 = TP[row];
+        for (let j = i; j < r; j++) {
+          const v = t0 * arPad[j] + (j + 1 < r ? TP[row + j + 1] : 0) + RR[row + j];
+          Pn[row + j] = v;
+          Pn[j * r + i] = v;
+          const dlt = abs(v - P[row + j]);
+          if (dlt > change) change = dlt;
         }
       }
+      const old = P;
+      P = Pn;
+      Pn = old;
       // Steady state: the covariance no longer changes (it then stays fixed while data are observed).
       if (observed && change < 1e-14 * (1 + abs(P[0])) && t + 1 < n && x[t + 1] === x[t + 1]) steady = true;
     }
