@@ -28,7 +28,7 @@ export const STEADY_TOLERANCE = 1e-17;
  * missing differences goes through the full filter of kalman.ts instead.
  */
 export class ArmaLikelihood {
-  /** Evaluations so far (for the benchmark's profile). */
+  /** Likelihood evaluations so far (negLoglik and negLoglikAt; for profiling). */
   evaluations = 0;
   private readonly x: readonly number[];
   private readonly o: ArimaOrder;
