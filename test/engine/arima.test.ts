@@ -6,7 +6,8 @@ import * as fs from "fs";
 import * as path from "path";
 import { fitArima } from "../../src/engine/models/arima/fit";
 import { parseArimaMethod, formatArimaOrder, ArimaOrder } from "../../src/engine/models/arima/order";
-import { expandAr, pacfToAr, arToPacf, differencingPolynomial, expandMa } from "../../src/engine/models/arima/polynomial";
+import { expandAr, pacfToAr, arToPacf, differencingPolynomial, expandMa, toUnit } from "../../src/engine/models/arima/polynomial";
+import { ArmaLikelihood } from "../../src/engine/models/arima/likelihood";
 import { armaSystem, armaFilter } from "../../src/engine/models/arima/kalman";
 import { kpss, canovaHansen, VM_CRITICAL_5 } from "../../src/engine/models/arima/unit-root";
 import { autoArima } from "../../src/engine/models/arima/auto";
@@ -91,6 +92,40 @@ describe("ARIMA algebra (published identities)", () => {
         fast.F.forEach((f, t) => expectClose(f, full.F[t], { rtol: 1e-10 }, `F_${t}`));
       }
     }
+  });
+  // The optimiser's P₀ first row comes from the step-down/Levinson autocovariances, the full filter's
+  // P₀ from the linear autocovariance system, so this also checks one against the other.
+  test("the optimiser's likelihood (Chandrasekhar recursions, frozen once the covariance has converged) equals the full Kalman filter's (Harvey 1989) to 1e-10", () => {
+    const air = dataset("AirPassengers").map(Math.log);
+    const airDx = air.slice(13).map((v, t) => v - air[t + 12] - air[t + 1] + air[t]);
+    const nile = dataset("nile");
+    const cases: [number[], ArimaOrder, number[]][] = [
+      [airDx, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false }, [-0.45, -0.7]],
+      [airDx, { p: 2, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: true }, [0.3, -0.2, -0.4, -0.6]],
+      [airDx, { p: 1, d: 1, q: 0, P: 1, D: 1, Q: 0, m: 12, constant: false }, [-0.3, -0.5]],
+      [airDx, { p: 1, d: 1, q: 1, P: 2, D: 1, Q: 1, m: 12, constant: true }, [0.5, -0.4, 0.3, -0.8, -0.6]],
+      [nile, { p: 1, d: 0, q: 1, P: 0, D: 0, Q: 0, m: 1, constant: true }, [1.2, -0.6]],
+      [nile, { p: 2, d: 0, q: 0, P: 0, D: 0, Q: 0, m: 1, constant: true }, [0.4, 0.2]],
+      [nile, { p: 0, d: 0, q: 2, P: 0, D: 0, Q: 0, m: 1, constant: false }, [0.9, 0.5]],
+      // close to a unit MA root: the covariance converges slowly (Θ's pacf 0.995)
+      [airDx, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false }, [-0.4, 9.95]],
+    ];
+    let froze = 0;
+    for (const [x, o, u] of cases) {
+      const r = u.map(toUnit);
+      const phi = pacfToAr(r.slice(0, o.p));
+      const Phi = pacfToAr(r.slice(o.p, o.p + o.P));
+      const theta = pacfToAr(r.slice(o.p + o.P, o.p + o.P + o.q)).map((v) => -v);
+      const Theta = pacfToAr(r.slice(o.p + o.P + o.q)).map((v) => -v);
+      const full = armaFilter(armaSystem(expandAr(phi, Phi, o.m), expandMa(theta, Theta, o.m)), x, o.constant ? "estimate" : "none", true);
+      const lik = new ArmaLikelihood(x, o);
+      const fast = -lik.negLoglik(u);
+      if (lik.steadyFrom >= 0) froze++;
+      expectClose(fast, full.loglik, { rtol: 1e-10 }, `${formatArimaOrder(o)} frozen from ${lik.steadyFrom}`);
+      lik.allowSteady = false;
+      expectClose(-lik.negLoglik(u), full.loglik, { rtol: 1e-10 }, `${formatArimaOrder(o)} never frozen`);
+    }
+    expect(froze).toBeGreaterThanOrEqual(3); // the switch is exercised
   });
   test("pacfToAr and arToPacf are inverse (Barndorff-Nielsen & Schou 1973 recursion)", () => {
     const r = [0.7, -0.4, 0.25];

@@ -1,6 +1,7 @@
 // The private numeric helpers, checked against closed forms (common practice: known integrals,
 // roots and minima of elementary functions).
 import { findRoot, minimizeBounded } from "../../src/engine/_lib/brent";
+import { forwardGradient, minimizeBfgs, numericGradient } from "../../src/engine/_lib/bfgs";
 import { integrate } from "../../src/engine/_lib/quadrature";
 import { createRandom } from "../../src/engine/_lib/random";
 import { expectClose } from "../helpers/reference";
@@ -22,6 +23,29 @@ test("Gauss–Kronrod integration of known integrals", () => {
   expectClose(integrate((x) => Math.exp(-x * x), -10, 10).value, Math.sqrt(Math.PI), { rtol: 1e-14 }, "√π");
   expectClose(integrate((x) => Math.sqrt(x), 0, 1).value, 2 / 3, { rtol: 1e-12 }, "√x (end singularity in the derivative)");
   expectClose(integrate((x) => 1 / (1 + x * x), -1, 1).value, Math.PI / 2, { rtol: 1e-14 }, "arctan");
+});
+
+test("BFGS finds the minimum of Rosenbrock's valley (Rosenbrock 1960) from the standard start (−1.2, 1) of Moré, Garbow & Hillstrom 1981", () => {
+  const r = minimizeBfgs((x) => 100 * (x[1] - x[0] ** 2) ** 2 + (1 - x[0]) ** 2, [-1.2, 1], 1e-8, 1e-15, 500);
+  expectClose(r.x[0], 1, { atol: 1e-4 }, "x");
+  expectClose(r.x[1], 1, { atol: 1e-4 }, "y");
+  expect(r.fx).toBeLessThan(1e-8);
+});
+
+test("BFGS on a badly scaled quadratic (gradient ~1e4 at the start) reaches the minimum; a stop rule ends it early without claiming convergence (common practice)", () => {
+  const f = (x: number[]): number => 1000 * ((x[0] - 3) ** 2 + 10 * (x[1] + 1) ** 2);
+  const r = minimizeBfgs(f, [0, 0], 1e-7, 1e-15, 200);
+  expectClose(r.x[0], 3, { atol: 1e-6 }, "x");
+  expectClose(r.x[1], -1, { atol: 1e-6 }, "y");
+  expect(r.evaluations).toBeLessThan(80); // 43 when written
+  const early = minimizeBfgs(f, [0, 0], 1e-7, 1e-15, 200, (x) => Math.abs(x[0] - 3) < 0.5);
+  expect(early.converged).toBe(false);
+  expect(early.evaluations).toBeLessThan(r.evaluations);
+});
+
+test("finite-difference gradients of exp at 1 equal e (calculus): central to 1e-9, forward to 1e-6", () => {
+  expectClose(numericGradient((x) => Math.exp(x[0]), [1])[0], Math.E, { rtol: 1e-9 }, "central");
+  expectClose(forwardGradient((x) => Math.exp(x[0]), [1], Math.E)[0], Math.E, { rtol: 1e-6 }, "forward");
 });
 
 describe("seeded generator", () => {

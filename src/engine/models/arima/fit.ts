@@ -14,6 +14,7 @@ import { solveSymmetric } from "../../_lib/cholesky";
 import { choleskyLower } from "../../_lib/cholesky-factor";
 import type { FittedModel, StepMoments } from "../types";
 import { armaFilter, armaSystem, ArmaFilterResult, ArmaSystem } from "./kalman";
+import { ArmaLikelihood } from "./likelihood";
 import { ArimaOrder, arimaTitle, formatArimaOrder } from "./order";
 import { applyDifference, differencingPolynomial, expandAr, expandMa, pacfToAr, toUnit } from "./polynomial";
 
@@ -70,31 +71,6 @@ function system(p: Omit<ArimaParams, "mu">, m: number): ArmaSystem {
   return armaSystem(expandAr(p.phi, p.Phi, m), expandMa(p.theta, p.Theta, m));
 }
 
-/** Conditional sum of squares of the differences (pre-sample errors zero), for a starting point. */
-function css(x: readonly number[], p: Omit<ArimaParams, "mu">, m: number, mu: number): number {
-  const a = expandAr(p.phi, p.Phi, m);
-  const b = expandMa(p.theta, p.Theta, m);
-  const e = new Float64Array(x.length);
-  let s = 0;
-  let count = 0;
-  for (let t = a.length; t < x.length; t++) {
-    if (!(x[t] === x[t])) continue;
-    let v = x[t] - mu;
-    let ok = true;
-    for (let k = 0; k < a.length; k++) {
-      const xv = x[t - k - 1];
-      if (!(xv === xv)) { ok = false; break; }
-      v -= a[k] * (xv - mu);
-    }
-    if (!ok) continue;
-    for (let j = 0; j < b.length && t - j - 1 >= 0; j++) v -= b[j] * e[t - j - 1];
-    e[t] = v;
-    s += v * v;
-    count++;
-  }
-  return count > 0 ? s / count : Infinity;
-}
-
 function observedMean(x: readonly number[]): number {
   let s = 0, n = 0;
   for (const v of x) if (v === v) { s += v; n++; }
@@ -146,25 +122,26 @@ export function fitArima(w: readonly number[], order: ArimaOrder, fixed?: ArimaP
   } else {
     const d = o.p + o.q + o.P + o.Q;
     const mu0 = o.constant ? observedMean(x) : 0;
-    const cssObjective = (u: number[]): number => Math.log(css(x, unpack(u, o), o.m, mu0));
-    const mlObjective = (u: number[]): number => {
-      try {
-        const f = armaFilter(system(unpack(u, o), o.m), x, muMode, false);
-        return -f.loglik;
-      } catch {
-        return Infinity;
-      }
-    };
+    const likelihood = new ArmaLikelihood(x, o);
+    const cssObjective = (u: number[]): number => Math.log(likelihood.css(u, mu0));
+    const mlObjective = (u: number[]): number => likelihood.negLoglik(u);
     const zero = new Array(d).fill(0);
     const starts: number[][] = [zero];
     if (d > 0) {
-      const cssFit = minimizeBfgs(cssObjective, zero, 1e-6, 1e-12, 100);
+      // Only a start: looser than the likelihood's tolerances (its gradient is of log CSS, O(1)).
+      const cssFit = minimizeBfgs(cssObjective, zero, 1e-4, 1e-8, 100);
       if (Number.isFinite(cssFit.fx)) starts.unshift(cssFit.x.map((v) => Math.max(-8, Math.min(8, v))));
     }
     let best = { x: zero, fx: mlObjective(zero) };
+    let first: { x: number[]; fx: number } | null = null;
+    // A later start whose path comes within 0.01 (in every unconstrained coordinate) of the first
+    // start's optimum, no more than 0.01 above it in −ℓ, is on its way to the same optimum: stopped.
+    const joins = (u: readonly number[], fu: number): boolean =>
+      first !== null && Number.isFinite(first.fx) && fu - first.fx < 0.01 && u.every((v, i) => Math.abs(v - (first as { x: number[] }).x[i]) < 0.01);
     for (const s of starts) {
-      const r = d > 0 ? minimizeBfgs(mlObjective, s, 1e-6, 1e-14, 300) : { x: s, fx: mlObjective(s) };
+      const r = d > 0 ? minimizeBfgs(mlObjective, s, 1e-6, 1e-11, 300, joins) : { x: s, fx: mlObjective(s) };
       if (r.fx < best.fx) best = { x: r.x, fx: r.fx };
+      if (first === null) first = { x: r.x, fx: r.fx };
     }
     if (!Number.isFinite(best.fx)) throw new EngineError("domain", `${arimaTitle(o)} could not be fitted to this series (the likelihood is not finite anywhere tried). Try a smaller order.`);
     params = unpack(best.x, o);
@@ -240,16 +217,13 @@ function hessianErrors(x: readonly number[], p: ArimaParams, o: ArimaOrder): Rec
   const vec = [...p.phi, ...p.theta, ...p.Phi, ...p.Theta, ...(o.constant ? [p.mu] : [])];
   const d = vec.length;
   if (d === 0) return {};
+  const likelihood = new ArmaLikelihood(x, o);
   const f = (v: number[]): number => {
     let i = 0;
     const take = (k: number): number[] => { const s = v.slice(i, i + k); i += k; return s; };
     const phi = take(o.p), theta = take(o.q), Phi = take(o.P), Theta = take(o.Q);
     const mu = o.constant ? v[i] : 0;
-    try {
-      return -armaFilter(system({ phi, Phi, theta, Theta }, o.m), x, o.constant ? mu : "none", false).loglik;
-    } catch {
-      return NaN;
-    }
+    return likelihood.negLoglikAt(phi, Phi, theta, Theta, mu);
   };
   const H = new Float64Array(d * d);
   const steps = vec.map((v) => 1e-4 * Math.max(1, Math.abs(v)));

@@ -61,7 +61,36 @@ export function armaSystem(ar: readonly number[], ma: readonly number[]): ArmaSy
  * follows from P₀ = T P₀ T′ + RR′ read element by element. Null when the AR part is not stationary.
  */
 function stationaryCovariance(ar: readonly number[], R: Float64Array, r: number): Float64Array | null {
+  const P = new Float64Array(r * r);
+  const row = new Float64Array(r);
+  if (!stationaryFirstRow(ar, ar.length, R, r, row)) return null;
   const p = ar.length;
+  for (let j = 0; j < r; j++) {
+    P[j] = row[j];
+    P[j * r] = row[j];
+  }
+  const P00 = P[0];
+  for (let i = 1; i < r; i++) {
+    for (let j = i; j < r; j++) {
+      const ai = i - 1 < p ? ar[i - 1] : 0;
+      const aj = j - 1 < p ? ar[j - 1] : 0;
+      const v = P[(i - 1) * r + j - 1] - ai * aj * P00 - ai * P[j] - aj * P[i * r] - R[i - 1] * R[j - 1];
+      P[i * r + j] = v;
+      P[j * r + i] = v;
+    }
+  }
+  for (let i = 0; i < r * r; i++) if (!Number.isFinite(P[i])) return null;
+  for (let i = 0; i < r; i++) if (!(P[i * r + i] >= -1e-9 * P00)) return null;
+  return P;
+}
+
+/**
+ * The first row (= first column) of the stationary state covariance P₀ (units of σ²) of an ARMA
+ * with AR coefficients ar[0..p) and R = (1, b₁, …, b_{r−1}), into `out` (length ≥ r), from the
+ * autocovariances as in stationaryCovariance (Brockwell & Davis 1991, §3.3). This is all the
+ * Chandrasekhar recursions need. False when the AR part is not stationary.
+ */
+export function stationaryFirstRow(ar: ArrayLike<number>, p: number, R: ArrayLike<number>, r: number, out: Float64Array): boolean {
   const q = r - 1; // R = (1, b_1, …, b_{r−1}), zeros past the MA order
   // ψ weights up to lag r
   const psi = new Float64Array(r + 1);
@@ -82,7 +111,7 @@ function stationaryCovariance(ar: readonly number[], R: Float64Array, r: number)
     rhs[k] = v;
   }
   const g0 = solveGeneral(A, rhs, d);
-  if (g0 === null || !(g0[0] > 0)) return null;
+  if (g0 === null || !(g0[0] > 0)) return false;
   const gamma = new Float64Array(r + 2);
   for (let k = 0; k <= Math.min(p, r + 1); k++) gamma[k] = g0[k];
   for (let k = p + 1; k <= r + 1; k++) {
@@ -91,26 +120,13 @@ function stationaryCovariance(ar: readonly number[], R: Float64Array, r: number)
     for (let j = k; j <= q; j++) v += (j === 0 ? 1 : R[j]) * psi[j - k];
     gamma[k] = v;
   }
-  const P = new Float64Array(r * r);
   for (let j = 0; j < r; j++) {
     let v = 0;
     for (let k = j; k < r; k++) v += (k < p ? ar[k] : 0) * gamma[1 + k - j] + R[k] * psi[k - j];
-    P[j] = v;
-    P[j * r] = v;
+    if (!Number.isFinite(v)) return false;
+    out[j] = v;
   }
-  const P00 = P[0];
-  for (let i = 1; i < r; i++) {
-    for (let j = i; j < r; j++) {
-      const ai = i - 1 < p ? ar[i - 1] : 0;
-      const aj = j - 1 < p ? ar[j - 1] : 0;
-      const v = P[(i - 1) * r + j - 1] - ai * aj * P00 - ai * P[j] - aj * P[i * r] - R[i - 1] * R[j - 1];
-      P[i * r + j] = v;
-      P[j * r + i] = v;
-    }
-  }
-  for (let i = 0; i < r * r; i++) if (!Number.isFinite(P[i])) return null;
-  for (let i = 0; i < r; i++) if (!(P[i * r + i] >= -1e-9 * P00)) return null;
-  return P;
+  return true;
 }
 
 /** Gaussian elimination with partial pivoting; null when singular. */
@@ -176,23 +192,27 @@ export function armaFilter(sys: ArmaSystem, x: readonly number[], mu: number | "
   const mu0 = typeof mu === "number" ? mu : 0;
   const a = new Float64Array(r); // state for the data
   const c = new Float64Array(r); // state for the column of ones (GLS for μ)
-  const P = P0.slice();
+  // P: predicted covariance P_{t|t−1}; Q: filtered P_{t|t}; TP = T Q; Pn: the next predicted one.
+  let P = P0.slice();
+  let Pn = new Float64Array(r * r);
+  const Q = new Float64Array(r * r);
   const TP = new Float64Array(r * r);
   const vx = new Float64Array(n);
   const v1 = new Float64Array(n);
   const F = new Float64Array(n);
+  const arPad = new Float64Array(r);
+  for (let i = 0; i < p; i++) arPad[i] = ar[i];
   let sumLogF = 0;
   let nobs = 0;
   let steady = false;
   const RR = new Float64Array(r * r);
   for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) RR[i * r + j] = R[i] * R[j];
   const Pcol = new Float64Array(r);
-  const Pprev = new Float64Array(r * r);
   for (let t = 0; t < n; t++) {
     const xt = x[t];
     const observed = xt === xt; // not NaN
+    let source = P; // the covariance the prediction starts from (filtered when observed)
     if (observed) {
-      if (!steady) Pprev.set(P);
       const f = P[0];
       F[t] = f;
       const e = xt - mu0 - a[0];
@@ -208,7 +228,17 @@ export function armaFilter(sys: ArmaSystem, x: readonly number[], mu: number | "
         if (withOnes) c[i] += (Pcol[i] * e1) / f;
       }
       if (!steady) {
-        for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) P[i * r + j] -= (Pcol[i] * Pcol[j]) / f;
+        // Q = P − P e₁ e₁′ P / f (symmetric)
+        const inv = 1 / f;
+        for (let i = 0; i < r; i++) {
+          const pi = Pcol[i] * inv;
+          for (let j = i; j < r; j++) {
+            const v = P[i * r + j] - pi * Pcol[j];
+            Q[i * r + j] = v;
+            Q[j * r + i] = v;
+          }
+        }
+        source = Q;
       }
     } else {
       vx[t] = NaN;
@@ -219,23 +249,34 @@ export function armaFilter(sys: ArmaSystem, x: readonly number[], mu: number | "
     predictState(a, ar, r, p);
     if (withOnes) predictState(c, ar, r, p);
     if (!steady || !observed) {
-      // P ← T P T′ + RR′, using T's structure: (TM)[i][j] = a_i M[0][j] + M[i+1][j].
-      for (let i = 0; i < r; i++) {
-        const ai = i < p ? ar[i] : 0;
-        for (let j = 0; j < r; j++) TP[i * r + j] = ai * P[j] + (i + 1 < r ? P[(i + 1) * r + j] : 0);
+      // P ← T S T′ + RR′ (S = Q or P), using T's structure: (TM)[i][j] = a_i M[0][j] + M[i+1][j].
+      const S = source;
+      for (let i = 0; i + 1 < r; i++) {
+        const ai = arPad[i];
+        const row = i * r, below = (i + 1) * r;
+        for (let j = 0; j < r; j++) TP[row + j] = ai * S[j] + S[below + j];
       }
+      {
+        const ai = arPad[r - 1];
+        const row = (r - 1) * r;
+        for (let j = 0; j < r; j++) TP[row + j] = ai * S[j];
+      }
+      // (TP T′)[i][j] = TP[i][0] a_j + TP[i][j+1]; symmetric, so the upper triangle is mirrored.
       let change = 0;
       for (let i = 0; i < r; i++) {
-        for (let j = 0; j < r; j++) {
-          const aj = j < p ? ar[j] : 0;
-          const v = TP[i * r] * aj + (j + 1 < r ? TP[i * r + j + 1] : 0) + RR[i * r + j];
-          if (observed) {
-            const dlt = abs(v - Pprev[i * r + j]);
-            if (dlt > change) change = dlt;
-          }
-          P[i * r + j] = v;
+        const row = i * r;
+        const t0 = TP[row];
+        for (let j = i; j < r; j++) {
+          const v = t0 * arPad[j] + (j + 1 < r ? TP[row + j + 1] : 0) + RR[row + j];
+          Pn[row + j] = v;
+          Pn[j * r + i] = v;
+          const dlt = abs(v - P[row + j]);
+          if (dlt > change) change = dlt;
         }
       }
+      const old = P;
+      P = Pn;
+      Pn = old;
       // Steady state: the covariance no longer changes (it then stays fixed while data are observed).
       if (observed && change < 1e-14 * (1 + abs(P[0])) && t + 1 < n && x[t + 1] === x[t + 1]) steady = true;
     }
