@@ -77,6 +77,11 @@ describe("degenerate and noted forecasts", () => {
     expect(lg.value).toBeCloseTo(Math.exp(2), 12);
     expect(lg.used).toBe("exact");
   });
+  test("σ = 0 past the pole (λ = −0.5, μ = 3: λμ + 1 < 0): no mean, with a note that says why", () => {
+    const m = forecastMean(makeTransform("box-cox", -0.5), 3, 0);
+    expect(m.value).toBeNull();
+    expect(m.note).toMatch(/unbounded/);
+  });
   test("no transform: the mean is μ whatever σ, reported as exact with no correction", () => {
     const m = forecastMean(makeTransform("none"), 120, 15, "taylor");
     expect(m.value).toBe(120);

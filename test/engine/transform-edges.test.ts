@@ -3,7 +3,7 @@
 // (Box & Cox 1964; Yeo & Johnson 2000), central finite differences for its second derivative, and
 // standard normal table values.
 import {
-  describeTransform, fitLambda, inverseSecondDerivative, makeTransform, normalCdf, poleProbability, transformInverse,
+  describeTransform, fitLambda, parseShift, inverseSecondDerivative, makeTransform, normalCdf, poleProbability, transformInverse,
 } from "../../src/engine";
 import type { TransformSpec } from "../../src/engine";
 import { checkLambdaBounds } from "../../src/engine/transform/bounds";
@@ -72,6 +72,13 @@ describe("inverse statuses, names and argument messages", () => {
     expect(describeTransform(makeTransform("yeo-johnson", 1))).toBe("Yeo-Johnson λ = 1");
     expect(describeTransform(makeTransform("box-cox", 0, 1))).toBe("shifted Box-Cox λ = 0, shift 1");
     expect(describeTransform(makeTransform("box-cox", 0.5))).toBe("Box-Cox λ = 0.5");
+  });
+  test("a shift read from text: a number, auto, blank (0), anything else refused (never NaN)", () => {
+    expect(parseShift("1.5")).toBe(1.5);
+    expect(parseShift(" AUTO ")).toBe("auto");
+    expect(parseShift("")).toBe(0);
+    expect(() => parseShift("abc")).toThrow(/shift must be a number.*got "abc"/);
+    expect(() => parseShift(Number.NaN)).toThrow(/shift must be a finite number/);
   });
   test("a shift with Yeo-Johnson is refused, saying shift is for Box-Cox", () => {
     expect(() => makeTransform("yeo-johnson", 1, 2)).toThrow(/shift applies to Box-Cox only/);
