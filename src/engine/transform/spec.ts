@@ -160,7 +160,9 @@ export function poleProbability(t: TransformSpec, mu: number, sigma: number): nu
   const l = t.lambda as number;
   let p = 0;
   if (l < -LAMBDA_ZERO) p += normalSf((-1 / l - mu) / sigma);
-  if (t.kind === "yeo-johnson" && l > 2 + LAMBDA_ZERO) p += normalCdf((1 / (l - 2) - mu) / sigma);
+  // Yeo-Johnson λ > 2: the inverse's negative branch 1 − (1 + (λ − 2)w)^(1/(2 − λ)) runs to −∞ as w falls
+  // to −1/(λ − 2), so the share past that pole is P(w < −1/(λ − 2)).
+  if (t.kind === "yeo-johnson" && l > 2 + LAMBDA_ZERO) p += normalCdf((-1 / (l - 2) - mu) / sigma);
   return p;
 }
 
