@@ -1,0 +1,29 @@
+// Edges of the series checks that the mutation run (MUTATION.md §2) found unguarded.
+import { requirePositiveSeries, screenSeries } from "../../src/engine";
+
+describe("zeros read as closed periods only when each sits alone between positive values", () => {
+  // INVENTED monthly sales of a shop; a zero is a month it was closed.
+  const base = [120, 131, 128, 140, 152, 149, 160, 171, 166, 178, 185, 190, 198, 204, 199, 210, 221, 230];
+  test("one zero between positive months: the suggested fix is to read zeros as missing", () => {
+    const y = base.slice();
+    y[7] = 0;
+    expect(screenSeries(y, { label: "Shop" }).fix).toBe("zeros-missing");
+  });
+  test("two zeros together are not a closed month: the fix is a shift, not zeros as missing", () => {
+    const y = base.slice();
+    y[7] = 0;
+    y[8] = 0;
+    expect(screenSeries(y, { label: "Shop" }).fix).toBe("shift");
+  });
+  test("a zero first or last is not a closed month either", () => {
+    expect(screenSeries([0, ...base.slice(1)], { label: "Shop" }).fix).toBe("shift");
+    expect(screenSeries([...base.slice(0, -1), 0], { label: "Shop" }).fix).toBe("shift");
+  });
+});
+
+describe("counts in messages agree in number (common practice)", () => {
+  test("a one-value series is 'it has 1 value', two are '2 values'", () => {
+    expect(() => requirePositiveSeries([5], 3, "the series", "a forecast")).toThrow(/it has 1 value, at least 3/);
+    expect(() => requirePositiveSeries([5, 6], 3, "the series", "a forecast")).toThrow(/it has 2 values, at least 3/);
+  });
+});
