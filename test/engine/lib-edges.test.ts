@@ -1,0 +1,51 @@
+// Edges of the numerical helpers that the mutation run (MUTATION.md §2) found unguarded. Expected
+// values are worked by hand in the comments (linear algebra) or are numpy's documented defaults.
+import { solveSymmetric } from "../../src/engine/_lib/cholesky";
+import { choleskyLower } from "../../src/engine/_lib/cholesky-factor";
+import { sortedQuantile } from "../../src/engine/_lib/sorted-quantile";
+
+// A = [[4,2,0],[2,5,1],[0,1,3]] is symmetric positive definite (leading minors 4, 16, 44).
+const A = [4, 2, 0, 2, 5, 1, 0, 1, 3];
+
+function times(L: Float64Array, d: number): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < d; i++) for (let j = 0; j < d; j++) {
+    let s = 0;
+    for (let k = 0; k < d; k++) s += L[i * d + k] * L[j * d + k];
+    out.push(s);
+  }
+  return out;
+}
+
+describe("Cholesky solve and factor (worked by hand)", () => {
+  test("A x = b with x = (1, −1, 2): b = A x = (2, −1, 5)", () => {
+    const x = solveSymmetric(new Float64Array(A), new Float64Array([2, -1, 5]), 3);
+    [1, -1, 2].forEach((v, i) => expect(x[i]).toBeCloseTo(v, 12));
+  });
+  test("L L′ = A, L lower triangular, for A and for A scaled by 1e-20 (the zero-pivot threshold is relative)", () => {
+    for (const s of [1, 1e-20]) {
+      const As = A.map((v) => v * s);
+      const L = choleskyLower(As, 3) as Float64Array;
+      expect(L[1]).toBe(0);
+      expect(L[2]).toBe(0);
+      expect(L[5]).toBe(0);
+      times(L, 3).forEach((v, i) => expect(v / s).toBeCloseTo(A[i], 12));
+    }
+  });
+  test("a singular correlation (perfectly correlated pair) gives a zero column, not a failure; an indefinite one gives null", () => {
+    const L = choleskyLower([1, 1, 1, 1], 2) as Float64Array;
+    expect(Array.from(L)).toEqual([1, 0, 1, 0]);
+    expect(choleskyLower([1, 2, 2, 1], 2)).toBeNull();
+  });
+});
+
+describe("sample quantiles by linear interpolation (Hyndman & Fan 1996 definition 7; numpy's default)", () => {
+  test("[1, 2, 3, 4]: p = 0 → 1, 0.5 → 2.5, 0.9 → 3.7, 1 → 4 (np.quantile)", () => {
+    const s = [1, 2, 3, 4];
+    expect(sortedQuantile(s, 0)).toBe(1);
+    expect(sortedQuantile(s, 0.5)).toBe(2.5);
+    expect(sortedQuantile(s, 0.9)).toBeCloseTo(3.7, 14);
+    expect(sortedQuantile(s, 1)).toBe(4);
+    expect(sortedQuantile([7], 0.3)).toBe(7);
+  });
+});
