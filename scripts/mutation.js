@@ -24,16 +24,16 @@ const root = path.resolve(__dirname, "..");
 
 /** Folder (or file group) → the test files that are about it. */
 const PLAN = {
-  "src/engine/distribution": ["distribution", "mean", "backtransform"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/transform": ["transform", "lambda", "lambda-newton", "lambda-model", "transform-forecast"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/audit": ["audit", "audit-definitions", "audit-log", "backtest-recomputed"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/totals": ["totals-published", "totals-across", "totals-window", "smearing"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/series": ["screen", "missing", "bad-input"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/_lib": ["lib", "distribution", "backtransform", "simulation"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/distribution": ["distribution", "distribution-edges", "mean", "backtransform"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/transform": ["transform", "transform-edges", "lambda", "lambda-newton", "lambda-model", "transform-forecast"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/audit": ["audit", "audit-edges", "audit-definitions", "audit-log", "backtest-recomputed"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/totals": ["totals-published", "totals-edges", "totals-across", "totals-window", "smearing"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/series": ["screen", "series-edges", "missing", "bad-input"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/_lib": ["lib", "lib-edges", "distribution", "backtransform", "simulation"].map((n) => `test/engine/${n}.test.ts`),
   "src/engine/models/arima": ["arima"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/models": ["ets", "forecast", "simulation", "fit-quality", "missing", "transform-forecast"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/models": ["ets", "models-edges", "forecast", "simulation", "fit-quality", "missing", "transform-forecast"].map((n) => `test/engine/${n}.test.ts`),
   "src/functions": ["functions", "forecast-functions", "audit-functions", "totals-functions", "arima-functions", "bad-input",
-    "error-messages", "forecast-cache-keys", "header-rule", "missing-cells", "cancel"].map((n) => `test/functions/${n}.test.ts`),
+    "error-messages", "forecast-cache-keys", "header-rule", "missing-cells", "cancel", "coerce-edges"].map((n) => `test/functions/${n}.test.ts`),
 };
 
 const args = process.argv.slice(2);
