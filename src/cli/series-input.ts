@@ -3,7 +3,7 @@
 // series keeping its own message when it cannot be used.
 import * as path from "path";
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
-import { DecimalMark, parseDelimiterOption, parsePeriodLabel, readTable, SeriesTable } from "../io";
+import { DecimalMark, LongColumns, LongSpec, parseDelimiterOption, parsePeriodLabel, readLongTable, readTable, SeriesTable } from "../io";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs, usageError } from "./options";
 import { Io, oneLine } from "./output";
@@ -36,19 +36,21 @@ export interface InputTable {
 export async function readInputTable(p: ParsedArgs, io: Io, example: string, options: { calendar?: boolean; keepLabels?: boolean } = {}): Promise<InputTable> {
   const file = fileArgument(p, example);
   const read = { calendar: options.calendar, decimal: p.choice("decimal") as DecimalMark | undefined };
+  // --long: one row per series and period, turned into the wide table as it is read.
+  const long = p.value<LongSpec>("long");
   if (path.extname(file).toLowerCase() === ".xlsx") {
     if (p.has("delimiter")) throw usageError(`--delimiter is for CSV files; ${file} is an .xlsx workbook, whose cells need no delimiter.`);
     const { readXlsxTable } = await import("./xlsx-read");
     const t = await readXlsxTable(file, { sheet: p.text("sheet"), range: p.text("range") });
     for (const n of t.notes) io.err(`fanwise: note: ${oneLine(n)}\n`);
-    return { table: readTable(t.columns, read), notes: t.notes };
+    return { table: long ? readLongTable(LongColumns.fromColumns(t.columns, long), read) : readTable(t.columns, read), notes: t.notes };
   }
   for (const k of ["sheet", "range"]) {
     if (p.has(k)) throw usageError(`--${k} is for .xlsx workbooks; ${file} is read as CSV (its name does not end in .xlsx).`);
   }
   const d = p.text("delimiter");
-  const cols = readCsvFile(file, { delimiter: d === undefined ? undefined : parseDelimiterOption(d), keepLabels: options.keepLabels });
-  return { table: readTable(cols, read), notes: [] };
+  const cols = readCsvFile(file, { delimiter: d === undefined ? undefined : parseDelimiterOption(d), keepLabels: options.keepLabels, long });
+  return { table: cols instanceof LongColumns ? readLongTable(cols, read) : readTable(cols, read), notes: [] };
 }
 
 /**
@@ -139,11 +141,12 @@ export function calendarLabel(text: string, frequency: string): string | null {
 }
 
 /**
- * Names a data row by where it is in the file.
+ * Names a data row by where it is in the file; with series j, where that series' cell is (in a
+ * long file each series' row of a period has its own line).
  * @example lineOf(data)(0) // "line 2"
  */
-export function lineOf(data: SeriesData): (i: number) => string {
-  return data.where;
+export function lineOf(data: SeriesData, j?: number): (i: number) => string {
+  return (i) => data.where(i, j);
 }
 
 /**
@@ -151,10 +154,10 @@ export function lineOf(data: SeriesData): (i: number) => string {
  * rows are in the file ("line 4", or "row 5 of sheet …" for a workbook).
  * @example atLines("zeros at rows 3, 5", data) // "zeros at lines 4, 6"
  */
-export function atLines(message: string, data: SeriesData): string {
+export function atLines(message: string, data: SeriesData, j?: number): string {
   // (a workbook's place already reads "row N of sheet …", which is left as it is)
   return message.replace(/\b(rows?) (\d+(?:, \d+)*)\b(?! of sheet)/g, (_m, word: string, list: string) => {
-    const places = list.split(", ").map((r) => data.where(Number(r) - 1));
+    const places = list.split(", ").map((r) => data.where(Number(r) - 1, j));
     if (places.every((x) => x.startsWith("line "))) return `${word === "rows" ? "lines" : "line"} ${places.map((x) => x.slice(5)).join(", ")}`;
     return places.join(", ");
   });
@@ -189,7 +192,7 @@ export function cleanSeriesAtLines(cells: RawCell[], data: SeriesData, j: number
     return cleanSeries(cells, data.names[j], 1, { zeros });
   } catch (e) {
     // cleanSeries names rows from 1; say which line of the file instead.
-    if (isEngineError(e)) throw new EngineError(e.code, atLines(e.message, data));
+    if (isEngineError(e)) throw new EngineError(e.code, atLines(e.message, data, j));
     throw e;
   }
 }
@@ -218,13 +221,13 @@ export function fitAll(p: ParsedArgs, data: SeriesData): SeriesFit[] {
       const cells = data.column(j);
       if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined) {
         // Say where the first value ≤ 0 is, by the file's line, and what works.
-        const screen = screenSeries(cells, { period, label: name, where: lineOf(data), zeros, zerosOption: ZEROS_OPTION_CLI });
+        const screen = screenSeries(cells, { period, label: name, where: lineOf(data, j), zeros, zerosOption: ZEROS_OPTION_CLI });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
       const f = fitForecast(cells, { method, lambda, transform, shift, period, label: name, zeros });
       return { name, f };
     } catch (e) {
-      return { name, error: atLines(errorMessage(e), data) };
+      return { name, error: atLines(errorMessage(e), data, j) };
     }
   });
 }

@@ -1,7 +1,7 @@
 // fanwise backtest: rolling-origin forecasts over the series' own past — coverage, interval score
 // and the errors of the mean and the median per step ahead, with Kupiec's p and a verdict per step.
 import { backtest, isEngineError } from "../../engine";
-import { Command, COMMON, IO_OPTIONS } from "../command";
+import { Command, COMMON, SERIES_IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
 import { errorMessage, periodOf, readSeriesFile, reportReading, zerosOf } from "../series-input";
 
@@ -20,7 +20,7 @@ export const backtestCommand: Command = {
     shift: COMMON.shift,
     mean: COMMON.mean,
     zeros: COMMON.zeros,
-    ...IO_OPTIONS,
+    ...SERIES_IO_OPTIONS,
   },
   examples: ["fanwise backtest sales.csv --horizon 3 --period 12"],
   async run(p, io) {

@@ -23,6 +23,7 @@ export const FAN_OPTIONS = {
   series: COMMON.series,
   sheet: COMMON.sheet,
   range: COMMON.range,
+  long: COMMON.long,
 };
 
 /**
@@ -70,7 +71,7 @@ export async function computeFans(p: ParsedArgs, io: Io, first?: number): Promis
     if (!x.f) return { name: x.name, j, error: x.error as string };
     try {
       const table = fanTable(x.f, H, { levels, mean });
-      return { name: x.name, j, table: { ...table, notes: table.notes.map((n) => atLines(n, data)) }, missing: x.f.missing, transform: { kind: x.f.transform.kind, lambda: x.f.transform.lambda, shift: x.f.transform.shift } };
+      return { name: x.name, j, table: { ...table, notes: table.notes.map((n) => atLines(n, data, j)) }, missing: x.f.missing, transform: { kind: x.f.transform.kind, lambda: x.f.transform.lambda, shift: x.f.transform.shift } };
     } catch (e) {
       if (isEngineError(e) && e.code === "input" && /horizon|level/.test(e.message)) throw e; // the same for every series
       return { name: x.name, j, error: errorMessage(e) };

@@ -2,7 +2,7 @@
 // uses (readable λ and form together by original-scale AICc), or the model's own maximum, or
 // Guerrero's method, or the i.i.d. profile likelihood — each with the interval that belongs to it.
 import { EngineError, autoShift, fitLambda, fitLambdaForModel, LambdaChoice, parseShift, screenSeries } from "../../engine";
-import { Command, COMMON, IO_OPTIONS } from "../command";
+import { Command, COMMON, SERIES_IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
 import { cleanSeriesAtLines, errorMessage, lineOf, periodOf, readSeriesFile, reportReading, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
@@ -17,7 +17,7 @@ export const lambdaCommand: Command = {
     shift: COMMON.shift,
     bounds: { type: { kind: "pair" }, value: "LO,HI", help: "search λ between these two numbers", example: "-1,2", default: "-1,2" },
     zeros: COMMON.zeros,
-    ...IO_OPTIONS,
+    ...SERIES_IO_OPTIONS,
   },
   examples: ["fanwise lambda sales.csv --period 12", "fanwise lambda sales.csv --method mle --json"],
   async run(p, io) {
@@ -31,7 +31,7 @@ export const lambdaCommand: Command = {
       try {
         const cells = data.column(j);
         if (kind === "box-cox" && shiftSpec === 0) {
-          const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI });
+          const screen = screenSeries(cells, { period, label: data.names[j], where: lineOf(data, j), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI });
           if (!screen.boxCoxUsable) throw new EngineError("input", screen.message);
         }
         const clean = cleanSeriesAtLines(cells, data, j, zerosOf(p));

@@ -2,7 +2,7 @@
 // means), median and interval from seeded simulated paths; with --across, one more row for the
 // total over all series, simulated jointly.
 import { alignSeries, checkWindowStart, EngineError, fitForecast, Forecaster, isEngineError, totalAcross, totalForecast, AcrossTotal, MeanMethod } from "../../engine";
-import { Command, COMMON, IO_OPTIONS } from "../command";
+import { Command, COMMON, SERIES_IO_OPTIONS } from "../command";
 import { emit, exitCode, seriesError } from "../output";
 import { atLines, calendarLabel, errorMessage, fitAll, labelsAfter, lastObserved, periodOf, readSeriesFile, reportReading, SeriesFit, stepLabels, zerosOf } from "../series-input";
 import type { SeriesData } from "../table";
@@ -97,7 +97,7 @@ export const totalCommand: Command = {
     transform: COMMON.transform,
     shift: COMMON.shift,
     zeros: COMMON.zeros,
-    ...IO_OPTIONS,
+    ...SERIES_IO_OPTIONS,
   },
   details: [
     "--from F --to T adds up steps F..T only (steps count from each series' last value), or the periods F..T when the file has a column of dates (--from 2026-01 --to 2026-12: each series' own steps to those months). --across adds a row for the total over all series, simulated jointly with their one-step errors correlated as in their history (the Pearson correlation of the transformed-scale residuals over the periods every series has), beside the interval if they were independent.",
@@ -127,7 +127,7 @@ export const totalCommand: Command = {
       try {
         const w = windowOf(lastObserved(data, j), x.name);
         const t = totalForecast(x.f, w.H, { level, seed, paths, mean, from: w.from });
-        return { name: x.name, j, method: x.f.method, lambda: x.f.lambda, transform: x.f.transform, missing: x.f.missing, t: { ...t, notes: t.notes.map((n) => atLines(n, data)) } };
+        return { name: x.name, j, method: x.f.method, lambda: x.f.lambda, transform: x.f.transform, missing: x.f.missing, t: { ...t, notes: t.notes.map((n) => atLines(n, data, j)) } };
       } catch (e) {
         if (isEngineError(e) && e.code === "input" && /horizon|level|paths|seed|^from|^--from|^--to/.test(e.message)) throw e;
         return { name: x.name, error: errorMessage(e) };
