@@ -81,6 +81,21 @@ export function periodOf(p: ParsedArgs, data: SeriesTable): PeriodChoice {
 }
 
 /**
+ * Reads every series' cells once, so the `reading` report (each column's number format) is complete
+ * before any result is written; a series whose cells cannot be read is left for its own message.
+ * @example readAllColumns(data); data.reading.columns["Harbour Street"].thousands // [","]
+ */
+export function readAllColumns(data: SeriesData): void {
+  for (let j = 0; j < data.names.length; j++) {
+    try {
+      data.column(j);
+    } catch (e) {
+      if (!isEngineError(e)) throw e;
+    }
+  }
+}
+
+/**
  * Says how the file was read when it matters (rows left out, order changed, skipped periods): in
  * CSV mode one "fanwise: note: …" line each on stderr (with --json the `reading` object says it).
  * @example reportReading(io, false, data) // stderr: "fanwise: note: Line 146 ("Total") is not a period; left out."
@@ -210,13 +225,23 @@ export interface SeriesFit {
  * @example fitAll(parsed, data)[0].f?.method // "holt-winters"
  */
 export function fitAll(p: ParsedArgs, data: SeriesData): SeriesFit[] {
+  return data.names.map((_, j) => fitOne(p, data, j));
+}
+
+/**
+ * Fits series j of the file with --method, --lambda, --transform, --shift and --period; a series
+ * that cannot be fitted keeps its message (what {@link fitAll} does for each series).
+ * @example fitOne(parsed, data, 0).f?.method // "holt-winters"
+ */
+export function fitOne(p: ParsedArgs, data: SeriesData, j: number): SeriesFit {
   const { period } = periodOf(p, data);
   const method = p.value<string>("method") ?? "auto";
   const lambda = p.value<string>("lambda") ?? "auto";
   const transform = p.has("transform") ? p.choice("transform") : undefined;
   const shift = p.text("shift");
   const zeros = zerosOf(p);
-  return data.names.map((name, j) => {
+  const name = data.names[j];
+  {
     try {
       const cells = data.column(j);
       if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined) {
@@ -229,7 +254,7 @@ export function fitAll(p: ParsedArgs, data: SeriesData): SeriesFit[] {
     } catch (e) {
       return { name, error: atLines(errorMessage(e), data, j) };
     }
-  });
+  }
 }
 
 /**
