@@ -89,10 +89,12 @@ function workerScript(): string | null {
 
 /**
  * The results of every series of `data`, in order: computed by `local` one after another with
- * `jobs` 1, else by `jobs` worker threads running the command's per-series function on the same
- * cells. At most a window of 8 × jobs results is held ahead of the one being written. A series
- * whose cells cannot be read is computed here (its message is the same). A usage error thrown for a
- * series (the same for every series) is thrown when that series' turn comes, as serially.
+ * `jobs` 1, else by the main thread and `jobs` − 1 worker threads running the command's per-series
+ * function on the same cells (the main thread computes the next series itself whenever the one to
+ * write is not back yet, so it is never idle and one thread's start is saved). At most a window of
+ * 8 × jobs results is held ahead of the one being written. A series whose cells cannot be read is
+ * computed here (its message is the same). An error thrown for a series (a usage error, the same
+ * for every series) is thrown when that series' turn comes, as serially.
  * @example for await (const r of inOrder(parsed, "fan", data, 2, (j) => fanOne(parsed, data, j))) write(r)
  */
 export async function* inOrder<R>(p: ParsedArgs, command: string, data: SeriesData, jobs: number, local: (j: number) => R): AsyncGenerator<R> {
@@ -103,10 +105,12 @@ export async function* inOrder<R>(p: ParsedArgs, command: string, data: SeriesDa
     return;
   }
   const setup: WorkerSetup = { command, argv: p.argv, period: { period: data.period, periodFrom: data.periodFrom } };
-  const workers = Array.from({ length: jobs }, () => new Worker(script, { workerData: setup }));
-  const done = new Map<number, { reply?: WorkerReply; local?: boolean }>();
+  const workers = Array.from({ length: jobs - 1 }, () => new Worker(script, { workerData: setup }));
+  /** Finished series waiting for their turn: a worker's reply, or the main thread's own result or error. */
+  const done = new Map<number, { reply?: WorkerReply; value?: R; thrown?: unknown; here?: boolean }>();
   const window = 8 * jobs;
-  let next = 0; // next series to send
+  let next = 0; // next series to hand out
+  let written = 0; // next series to yield
   let failure: Error | null = null;
   let wake: (() => void) | null = null;
   const busy = new Map<Worker, number>();
@@ -124,14 +128,20 @@ export async function* inOrder<R>(p: ParsedArgs, command: string, data: SeriesDa
     }
     return { j, name: data.names[j], cells, where: Array.from({ length: cells.length }, (_, i) => data.where(i, j)) };
   };
-  let written = 0;
   const feed = (w: Worker): void => {
     while ((busy.get(w) ?? 0) < 2 && next < count && next < written + window) {
       const j = next++;
       const task = taskOf(j);
-      if (task === null) { done.set(j, { local: true }); continue; }
+      if (task === null) { done.set(j, { here: true }); continue; }
       busy.set(w, (busy.get(w) ?? 0) + 1);
       w.postMessage(task);
+    }
+  };
+  const computeHere = (j: number): void => {
+    try {
+      done.set(j, { value: local(j) });
+    } catch (e) {
+      done.set(j, { thrown: e });
     }
   };
   for (const w of workers) {
@@ -151,13 +161,21 @@ export async function* inOrder<R>(p: ParsedArgs, command: string, data: SeriesDa
       const got = done.get(written);
       if (!got) {
         if (failure) throw failure;
-        await new Promise<void>((resolve) => { wake = resolve; });
+        if (next < count && next < written + window) {
+          computeHere(next++);
+          // let the workers' replies in before going on
+          await new Promise<void>((resolve) => setImmediate(resolve));
+        } else {
+          await new Promise<void>((resolve) => { wake = resolve; });
+        }
         continue;
       }
       done.delete(written);
       const j = written++;
       for (const w of workers) feed(w);
-      if (got.local || !got.reply) yield local(j);
+      if (got.here) yield local(j);
+      else if ("thrown" in got) throw got.thrown;
+      else if (!got.reply) yield got.value as R;
       else if (got.reply.ok) yield got.reply.result as R;
       else if (got.reply.code) throw new EngineError(got.reply.code, got.reply.message);
       else throw new Error(got.reply.message);
