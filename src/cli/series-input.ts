@@ -244,8 +244,9 @@ export function fitOne(p: ParsedArgs, data: SeriesData, j: number): SeriesFit {
   {
     try {
       const cells = data.column(j);
-      if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined) {
-        // Say where the first value ≤ 0 is, by the file's line, and what works.
+      if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined && hasNonPositive(cells, zeros)) {
+        // Say where the first value ≤ 0 is, by the file's line, and what works (the screen also
+        // suggests a λ, a whole auto fit: only asked for when there is a value ≤ 0 to name).
         const screen = screenSeries(cells, { period, label: name, where: lineOf(data, j), zeros, zerosOption: ZEROS_OPTION_CLI });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
@@ -255,6 +256,11 @@ export function fitOne(p: ParsedArgs, data: SeriesData, j: number): SeriesFit {
       return { name, error: atLines(errorMessage(e), data, j) };
     }
   }
+}
+
+/** Whether a series has a value ≤ 0 that Box-Cox cannot take (what the screen counts as nonPositive). */
+function hasNonPositive(cells: readonly RawCell[], zeros: ZerosRule): boolean {
+  return cells.some((c) => typeof c === "number" && Number.isFinite(c) && c <= 0 && !(zeros === "missing" && c === 0));
 }
 
 /**

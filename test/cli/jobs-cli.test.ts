@@ -35,7 +35,7 @@ const L = ["--long", "shop,month,sales"];
 describe("--jobs 2 gives byte-equal output to --jobs 1 (26 elnino series and 3 that fail)", () => {
   const cases: [string, string[]][] = [
     ["fan --method auto, JSON", ["fan", "--horizon", "12", "--json"]],
-    ["lambda, JSON", ["lambda", "--json"]],
+    ["lambda (Guerrero), JSON", ["lambda", "--method", "guerrero", "--json"]],
     ["backtest, CSV", ["backtest", "--horizon", "2", "--method", "ses", "--lambda", "0"]],
   ];
   test.each(cases)("%s", async (_name, args) => {

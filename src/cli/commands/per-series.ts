@@ -5,6 +5,7 @@ import { SeriesData } from "../table";
 import { backtestOne } from "./backtest";
 import { fanOne } from "./fan";
 import { lambdaOne } from "./lambda";
+import { totalOne } from "./total";
 
 /** A command's result for series j of `data`; `at` is the series' place in the whole file. */
 export type PerSeries = (p: ParsedArgs, data: SeriesData, j: number, at: number) => unknown;
@@ -14,4 +15,5 @@ export const PER_SERIES: Record<string, PerSeries> = {
   fan: fanOne,
   lambda: lambdaOne,
   backtest: backtestOne,
+  total: (p, data, j, at) => totalOne(p, data, j, at),
 };
