@@ -67,6 +67,23 @@ function runFan(file, long, jobs, outFile) {
   return { wall, cpu: user + sys, mb: kb / 1024 };
 }
 
+/**
+ * What two threads can gain on this machine now: the same pure computation in 1 and in 2 worker
+ * threads (2× the work), as a ratio of throughput (2.0 on two idle cores; less when others share them).
+ */
+function calibrate() {
+  const code = `const { parentPort } = require("worker_threads"); let x = 0; for (let i = 0; i < 2e8; i++) x += Math.sqrt(i); parentPort.postMessage(x);`;
+  const script = path.join(dir, "spin.js");
+  fs.writeFileSync(script, code);
+  const timeThreads = (n) => {
+    const r = spawnSync(process.execPath, ["-e", `const { Worker } = require("worker_threads"); const t = Date.now(); let d = 0; for (let k = 0; k < ${n}; k++) new Worker(${JSON.stringify(script)}).on("message", () => { if (++d === ${n}) console.log(Date.now() - t); });`], { encoding: "utf8" });
+    return Number(r.stdout.trim()) / 1000;
+  };
+  const one = timeThreads(1);
+  const two = timeThreads(2);
+  return { one, two, gain: (2 * one) / two };
+}
+
 function main() {
   console.log(`many series: ${COUNT} × ${LENGTH} monthly points, fan --method auto --horizon 12; ${os.cpus().length} cores, load ${os.loadavg().map((x) => x.toFixed(1)).join(" ")}, Node ${process.version}`);
   const series = makeSeries(COUNT, LENGTH, 20261202);
@@ -83,6 +100,8 @@ function main() {
       console.log(`${shape}, --jobs ${jobs}: ${m.wall.toFixed(1)} s wall (${(COUNT / m.wall).toFixed(1)} series/s), CPU ${m.cpu.toFixed(1)} s, peak memory ${m.mb.toFixed(0)} MB`);
     }
   }
+  const cal = calibrate();
+  console.log(`this machine now: the same pure computation in 2 threads gives ${cal.gain.toFixed(2)}× the throughput of 1 thread (${cal.one.toFixed(1)} s for 1 unit, ${cal.two.toFixed(1)} s for 2 units in 2 threads; 2.00× on two idle cores)`);
   const ref = outs["long-1"];
   const same = Object.values(outs).every((o) => o === ref);
   console.log(`outputs byte-equal (long = wide, --jobs 2 = --jobs 1): ${same ? "yes" : "NO"} (${(ref.length / 1e6).toFixed(2)} MB of CSV)`);

@@ -37,6 +37,7 @@ describe("--jobs 2 gives byte-equal output to --jobs 1 (26 elnino series and 3 t
     ["fan --method auto, JSON", ["fan", "--horizon", "12", "--json"]],
     ["lambda (Guerrero), JSON", ["lambda", "--method", "guerrero", "--json"]],
     ["backtest, CSV", ["backtest", "--horizon", "2", "--method", "ses", "--lambda", "0"]],
+    ["total, JSON", ["total", "--horizon", "6", "--method", "ses", "--lambda", "0", "--paths", "500", "--json"]],
   ];
   test.each(cases)("%s", async (_name, args) => {
     const serial = await run([args[0], file, ...args.slice(1), ...L, "--jobs", "1"]);

@@ -6,7 +6,9 @@
 import * as fs from "fs";
 import * as os from "os";
 import * as path from "path";
+import { Workbook } from "exceljs";
 import { main } from "../../src/cli/fanwise";
+import { buildDemoWorkbook } from "../../src/demo/quillmere";
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "fanwise-long-"));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -149,4 +151,33 @@ describe("how a long file is read, and what is refused (invented Quillmere shop 
     const r = await run(["fan", f, "--long", "store,month,sales", "--horizon", "1", "--method", "naive", "--json"]);
     expect(JSON.parse(r.out).series["Old Quay"].error).toMatch(/first at line 10\b/);
   });
+});
+
+describe("a long sheet of a workbook (the invented Quillmere demo data)", () => {
+  test("reads like the wide sheet of the same series: byte-equal fan JSON", async () => {
+    const demo = buildDemoWorkbook();
+    const date = (m: string): Date => new Date(Date.UTC(Number(m.slice(0, 4)), Number(m.slice(5, 7)) - 1, 1));
+    const write = async (name: string, fill: (ws: ReturnType<Workbook["addWorksheet"]>) => void): Promise<string> => {
+      const wb = new Workbook();
+      fill(wb.addWorksheet("Sales"));
+      const f = path.join(dir, name);
+      await wb.xlsx.writeFile(f);
+      return f;
+    };
+    const wideBook = await write("wide.xlsx", (ws) => {
+      ws.addRow(["month", ...demo.columns.map((c) => c.name)]);
+      demo.months.forEach((m, i) => ws.addRow([date(m), ...demo.columns.map((c) => c.values[i])]));
+    });
+    const longBook = await write("long.xlsx", (ws) => {
+      ws.addRow(["series", "month", "value"]);
+      for (const c of demo.columns) demo.months.forEach((m, i) => ws.addRow([c.name, date(m), c.values[i]]));
+    });
+    const args = ["--horizon", "6", "--method", "ses", "--lambda", "0", "--json"];
+    const w = await run(["fan", wideBook, ...args]);
+    const l = await run(["fan", longBook, ...args, "--long", "series,month,value"]);
+    const places = (s: string): string => s.replace(/row \d+ of sheet/g, "row N of sheet");
+    expect(Object.keys(JSON.parse(l.out).series)).toEqual(demo.columns.map((c) => c.name));
+    expect(places(l.out)).toBe(places(w.out));
+    expect(places(l.err)).toBe(places(w.err));
+  }, 60000);
 });
