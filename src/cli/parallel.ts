@@ -20,7 +20,7 @@ export const JOBS_OPTION = {
   value: "N",
   help: `worker threads for the series (1: one after another; default: every core when there are at least ${PARALLEL_MIN_SERIES} series); the output is the same`,
   example: "2",
-  default: "every core",
+  default: `every core from ${PARALLEL_MIN_SERIES} series`,
 };
 
 /**
