@@ -11,8 +11,12 @@ import { ParsedArgs, usageError } from "./options";
 import { PeriodChoice } from "./series-input";
 import { SeriesData } from "./table";
 
-/** Fewer series than this run on one core by default: a worker's start (about 0.1 s) is not repaid. */
-export const PARALLEL_MIN_SERIES = 8;
+/**
+ * Fewer series than this run on one thread by default: a worker thread's start (loading the engine:
+ * 1.4–2.2 s of CPU measured on the shared 2-core machine, about 40 `auto` fits of 120 months; see
+ * bench/README.md) is not repaid by a few series.
+ */
+export const PARALLEL_MIN_SERIES = 50;
 
 /** The --jobs option, shared by the commands that work series by series. */
 export const JOBS_OPTION = {
