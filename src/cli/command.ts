@@ -1,6 +1,7 @@
 // What every command file exports: its name, its one-line summary, its arguments and its option
 // table (the single declaration that parsing, usage errors and help come from), and its run.
 import { METHODS, isEngineError, parseMethod } from "../engine";
+import { LongSpec, parseLongSpec } from "../io";
 import { Io } from "./output";
 import { OptionSpec, OptionTable, ParsedArgs, switchOption, usageError } from "./options";
 
@@ -52,6 +53,14 @@ export function checkMethod(v: string, name: string): string {
 }
 
 /**
+ * Checks --long: three header names (series, period, value) separated by commas; a usage error otherwise.
+ * @example checkLong("store,month,sales", "long") // { series: "store", period: "month", value: "sales" }
+ */
+export function checkLong(v: string, name: string): LongSpec {
+  return parseLongSpec(v, `--${name}`);
+}
+
+/**
  * Checks --digits: a whole number of significant digits from 1 to 17 (17 shows any double exactly).
  * @example checkDigits("6", "digits") // 6
  */
@@ -80,7 +89,11 @@ export const COMMON = {
   out: { type: { kind: "text" }, value: "FILE", help: "write the table to FILE: .xlsx (with number formats, settings, cautions and charts), .csv or .json", example: "results.xlsx" },
   sheet: { type: { kind: "text" }, value: "NAME", help: "the worksheet to read when FILE is .xlsx (default: the first)", example: "Sales" },
   range: { type: { kind: "text" }, value: "A1:H74", help: "the cells to read when FILE is .xlsx, header row first (default: the used range)", example: "B2:H74" },
+  long: { type: { kind: "custom", check: checkLong }, value: "SERIES_COL,PERIOD_COL,VALUE_COL", help: "read a long file: one row per series and period, the three columns named by their headers (series in order of first appearance)", example: "store,month,sales" },
 } satisfies Record<string, OptionSpec>;
 
-/** The options every per-series command takes for reading its file and writing its table. */
+/** The options every command that reads a table takes for reading its file and writing its table. */
 export const IO_OPTIONS = { series: COMMON.series, sheet: COMMON.sheet, range: COMMON.range, delimiter: COMMON.delimiter, decimal: COMMON.decimal, json: COMMON.json, digits: COMMON.digits, out: COMMON.out };
+
+/** IO_OPTIONS plus --long, for the commands that read series (one per column, or one per name in a long file). */
+export const SERIES_IO_OPTIONS = { ...IO_OPTIONS, long: COMMON.long };

@@ -2,7 +2,7 @@
 // file's text is never held whole.
 import * as fs from "fs";
 import { EngineError } from "../engine";
-import { CsvColumns, CsvRecordReader, Delimiter, detectDelimiter, notText } from "../io";
+import { CsvColumns, CsvRecordReader, Delimiter, detectDelimiter, LongColumns, LongSpec, notText } from "../io";
 
 /**
  * Reads a CSV file in 256 KiB pieces straight into columns; the text is never held whole. UTF-8 (with
@@ -13,7 +13,7 @@ import { CsvColumns, CsvRecordReader, Delimiter, detectDelimiter, notText } from
  * hit strip). Throws `input` EngineErrors that say what to fix.
  * @example readCsvFile("sales.csv").header // ["month", "Harbour Street", …]
  */
-export function readCsvFile(file: string, options: { delimiter?: Delimiter; keepLabels?: boolean } = {}): CsvColumns {
+export function readCsvFile(file: string, options: { delimiter?: Delimiter; keepLabels?: boolean; long?: LongSpec } = {}): CsvColumns {
   let fd: number;
   try {
     fd = fs.openSync(file, "r");
@@ -26,22 +26,23 @@ export function readCsvFile(file: string, options: { delimiter?: Delimiter; keep
     throw new EngineError("input", code === "ENOENT" ? `File not found: ${file}` : code === "EISDIR" ? `${file} is a folder, not a CSV file.` : code === "EACCES" ? `No permission to read ${file}.` : `Cannot read ${file} (${code ?? "error"}).`);
   }
   try {
-    const first = readWith(fd, "utf-8", options.delimiter, options.keepLabels ?? false);
+    const first = readWith(fd, "utf-8", options.delimiter, options.keepLabels ?? false, options.long);
     if (first !== "not-utf8") return first;
-    return readWith(fd, "windows-1252", options.delimiter, options.keepLabels ?? false) as CsvColumns;
+    return readWith(fd, "windows-1252", options.delimiter, options.keepLabels ?? false, options.long) as CsvColumns;
   } finally {
     fs.closeSync(fd);
   }
 }
 
-function readWith(fd: number, encoding: "utf-8" | "windows-1252", delimiter: Delimiter | undefined, keepLabels: boolean): CsvColumns | "not-utf8" {
+function readWith(fd: number, encoding: "utf-8" | "windows-1252", delimiter: Delimiter | undefined, keepLabels: boolean, long: LongSpec | undefined): CsvColumns | "not-utf8" {
   // The first piece decides the delimiter (the command line names rows by their line, so label text
   // that is not a period is not kept unless asked).
   let state: { cols: CsvColumns; reader: CsvRecordReader } | null = null;
   const feed = (text: string): CsvColumns => {
     if (!state) {
       const choice = detectDelimiter(text, delimiter);
-      const cols = new CsvColumns(keepLabels, choice.delimiter, choice.from);
+      // A long file (--long) is collected straight into its wide table, record by record.
+      const cols = long ? new LongColumns(long, keepLabels, choice.delimiter, choice.from) : new CsvColumns(keepLabels, choice.delimiter, choice.from);
       state = { cols, reader: new CsvRecordReader((fields, line) => cols.add(fields, line), choice.delimiter, choice.firstLine) };
       text = text.slice(choice.skip);
     }

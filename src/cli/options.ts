@@ -42,6 +42,8 @@ export class ParsedArgs {
     readonly positional: string[],
     private readonly raw: Map<string, string | true>,
     private readonly values: Map<string, unknown>,
+    /** The command's arguments as typed (a worker thread parses them again). */
+    readonly argv: string[] = [],
   ) {}
 
   /** Whether the option was given. */
@@ -181,7 +183,7 @@ export function parseOptions(command: string, argv: string[], table: OptionTable
     }
     if (v !== true) values.set(name, checkValue(name, spec, v));
   }
-  return new ParsedArgs(positional, raw, values);
+  return new ParsedArgs(positional, raw, values, argv.slice());
 }
 
 /** "--horizon 3" for "-h 3": the option the single-dash name starts, with the value the user typed. */

@@ -89,8 +89,24 @@ export interface TableResult {
 
 /** The table's rows with numbers rounded for print (--digits), counts left as they are. */
 export function printedRows(r: TableResult, digits: number): unknown[][] {
-  const exact = r.header.map((h) => COUNT_COLUMNS.has(h) || (r.exact ?? []).includes(h));
-  return r.rows().map((row) => row.map((v, j) => (typeof v === "number" && !exact[j] ? formatNumber(v, digits) : v)));
+  return r.rows().map(rowPrinter(r.header, r.exact, digits));
+}
+
+/**
+ * Rounds one row's numbers for print (--digits), leaving counts and the `exact` columns as they are.
+ * @example rowPrinter(["series", "h", "mean"], undefined, 3)(["a", 1, 12.345]) // ["a", 1, "12.3"]
+ */
+export function rowPrinter(header: string[], exactColumns: string[] | undefined, digits: number): (row: unknown[]) => unknown[] {
+  const exact = header.map((h) => COUNT_COLUMNS.has(h) || (exactColumns ?? []).includes(h));
+  return (row) => row.map((v, j) => (typeof v === "number" && !exact[j] ? formatNumber(v, digits) : v));
+}
+
+/**
+ * The message for a file --out cannot write (its system error code in words).
+ * @example writeError("x/y.csv", "ENOENT") // "Cannot write x/y.csv (no such folder)."
+ */
+export function writeError(out: string, code: string): string {
+  return `Cannot write ${out} (${code === "ENOENT" ? "no such folder" : code === "EACCES" ? "no permission" : code === "EBUSY" ? "the file is open in another program" : code}).`;
 }
 
 /** Writes a workbook; loaded only when --out names an .xlsx file (it pulls in the xlsx library). */
@@ -121,7 +137,7 @@ export async function emit(io: Io, p: ParsedArgs, r: TableResult, writeWorkbook?
     else throw new EngineError("input", `--out must name a .xlsx, .csv or .json file, e.g. --out results.xlsx; got "${out}".`);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
-    if (typeof code === "string" && /^E[A-Z]+$/.test(code)) throw new EngineError("input", `Cannot write ${out} (${code === "ENOENT" ? "no such folder" : code === "EACCES" ? "no permission" : code === "EBUSY" ? "the file is open in another program" : code}).`);
+    if (typeof code === "string" && /^E[A-Z]+$/.test(code)) throw new EngineError("input", writeError(out, code));
     throw e;
   }
   io.out(`Wrote ${out}\n`);

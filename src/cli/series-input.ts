@@ -3,7 +3,7 @@
 // series keeping its own message when it cannot be used.
 import * as path from "path";
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
-import { DecimalMark, parseDelimiterOption, parsePeriodLabel, readTable, SeriesTable } from "../io";
+import { DecimalMark, LongColumns, LongSpec, parseDelimiterOption, parsePeriodLabel, readLongTable, readTable, SeriesTable } from "../io";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs, usageError } from "./options";
 import { Io, oneLine } from "./output";
@@ -36,19 +36,21 @@ export interface InputTable {
 export async function readInputTable(p: ParsedArgs, io: Io, example: string, options: { calendar?: boolean; keepLabels?: boolean } = {}): Promise<InputTable> {
   const file = fileArgument(p, example);
   const read = { calendar: options.calendar, decimal: p.choice("decimal") as DecimalMark | undefined };
+  // --long: one row per series and period, turned into the wide table as it is read.
+  const long = p.value<LongSpec>("long");
   if (path.extname(file).toLowerCase() === ".xlsx") {
     if (p.has("delimiter")) throw usageError(`--delimiter is for CSV files; ${file} is an .xlsx workbook, whose cells need no delimiter.`);
     const { readXlsxTable } = await import("./xlsx-read");
     const t = await readXlsxTable(file, { sheet: p.text("sheet"), range: p.text("range") });
     for (const n of t.notes) io.err(`fanwise: note: ${oneLine(n)}\n`);
-    return { table: readTable(t.columns, read), notes: t.notes };
+    return { table: long ? readLongTable(LongColumns.fromColumns(t.columns, long), read) : readTable(t.columns, read), notes: t.notes };
   }
   for (const k of ["sheet", "range"]) {
     if (p.has(k)) throw usageError(`--${k} is for .xlsx workbooks; ${file} is read as CSV (its name does not end in .xlsx).`);
   }
   const d = p.text("delimiter");
-  const cols = readCsvFile(file, { delimiter: d === undefined ? undefined : parseDelimiterOption(d), keepLabels: options.keepLabels });
-  return { table: readTable(cols, read), notes: [] };
+  const cols = readCsvFile(file, { delimiter: d === undefined ? undefined : parseDelimiterOption(d), keepLabels: options.keepLabels, long });
+  return { table: cols instanceof LongColumns ? readLongTable(cols, read) : readTable(cols, read), notes: [] };
 }
 
 /**
@@ -76,6 +78,21 @@ export interface PeriodChoice {
 export function periodOf(p: ParsedArgs, data: SeriesTable): PeriodChoice {
   const given = p.int("period");
   return given !== undefined ? { period: given, periodFrom: "option" } : { period: data.period, periodFrom: data.periodFrom };
+}
+
+/**
+ * Reads every series' cells once, so the `reading` report (each column's number format) is complete
+ * before any result is written; a series whose cells cannot be read is left for its own message.
+ * @example readAllColumns(data); data.reading.columns["Harbour Street"].thousands // [","]
+ */
+export function readAllColumns(data: SeriesData): void {
+  for (let j = 0; j < data.names.length; j++) {
+    try {
+      data.column(j);
+    } catch (e) {
+      if (!isEngineError(e)) throw e;
+    }
+  }
 }
 
 /**
@@ -139,11 +156,12 @@ export function calendarLabel(text: string, frequency: string): string | null {
 }
 
 /**
- * Names a data row by where it is in the file.
+ * Names a data row by where it is in the file; with series j, where that series' cell is (in a
+ * long file each series' row of a period has its own line).
  * @example lineOf(data)(0) // "line 2"
  */
-export function lineOf(data: SeriesData): (i: number) => string {
-  return data.where;
+export function lineOf(data: SeriesData, j?: number): (i: number) => string {
+  return (i) => data.where(i, j);
 }
 
 /**
@@ -151,10 +169,10 @@ export function lineOf(data: SeriesData): (i: number) => string {
  * rows are in the file ("line 4", or "row 5 of sheet …" for a workbook).
  * @example atLines("zeros at rows 3, 5", data) // "zeros at lines 4, 6"
  */
-export function atLines(message: string, data: SeriesData): string {
+export function atLines(message: string, data: SeriesData, j?: number): string {
   // (a workbook's place already reads "row N of sheet …", which is left as it is)
   return message.replace(/\b(rows?) (\d+(?:, \d+)*)\b(?! of sheet)/g, (_m, word: string, list: string) => {
-    const places = list.split(", ").map((r) => data.where(Number(r) - 1));
+    const places = list.split(", ").map((r) => data.where(Number(r) - 1, j));
     if (places.every((x) => x.startsWith("line "))) return `${word === "rows" ? "lines" : "line"} ${places.map((x) => x.slice(5)).join(", ")}`;
     return places.join(", ");
   });
@@ -189,7 +207,7 @@ export function cleanSeriesAtLines(cells: RawCell[], data: SeriesData, j: number
     return cleanSeries(cells, data.names[j], 1, { zeros });
   } catch (e) {
     // cleanSeries names rows from 1; say which line of the file instead.
-    if (isEngineError(e)) throw new EngineError(e.code, atLines(e.message, data));
+    if (isEngineError(e)) throw new EngineError(e.code, atLines(e.message, data, j));
     throw e;
   }
 }
@@ -207,26 +225,42 @@ export interface SeriesFit {
  * @example fitAll(parsed, data)[0].f?.method // "holt-winters"
  */
 export function fitAll(p: ParsedArgs, data: SeriesData): SeriesFit[] {
+  return data.names.map((_, j) => fitOne(p, data, j));
+}
+
+/**
+ * Fits series j of the file with --method, --lambda, --transform, --shift and --period; a series
+ * that cannot be fitted keeps its message (what {@link fitAll} does for each series).
+ * @example fitOne(parsed, data, 0).f?.method // "holt-winters"
+ */
+export function fitOne(p: ParsedArgs, data: SeriesData, j: number): SeriesFit {
   const { period } = periodOf(p, data);
   const method = p.value<string>("method") ?? "auto";
   const lambda = p.value<string>("lambda") ?? "auto";
   const transform = p.has("transform") ? p.choice("transform") : undefined;
   const shift = p.text("shift");
   const zeros = zerosOf(p);
-  return data.names.map((name, j) => {
+  const name = data.names[j];
+  {
     try {
       const cells = data.column(j);
-      if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined) {
-        // Say where the first value ≤ 0 is, by the file's line, and what works.
-        const screen = screenSeries(cells, { period, label: name, where: lineOf(data), zeros, zerosOption: ZEROS_OPTION_CLI });
+      if (lambda !== "none" && (transform === undefined || transform === "box-cox") && shift === undefined && hasNonPositive(cells, zeros)) {
+        // Say where the first value ≤ 0 is, by the file's line, and what works (the screen also
+        // suggests a λ, a whole auto fit: only asked for when there is a value ≤ 0 to name).
+        const screen = screenSeries(cells, { period, label: name, where: lineOf(data, j), zeros, zerosOption: ZEROS_OPTION_CLI });
         if (screen.nonPositive > 0) throw new EngineError("input", screen.message);
       }
       const f = fitForecast(cells, { method, lambda, transform, shift, period, label: name, zeros });
       return { name, f };
     } catch (e) {
-      return { name, error: atLines(errorMessage(e), data) };
+      return { name, error: atLines(errorMessage(e), data, j) };
     }
-  });
+  }
+}
+
+/** Whether a series has a value ≤ 0 that Box-Cox cannot take (what the screen counts as nonPositive). */
+function hasNonPositive(cells: readonly RawCell[], zeros: ZerosRule): boolean {
+  return cells.some((c) => typeof c === "number" && Number.isFinite(c) && c <= 0 && !(zeros === "missing" && c === 0));
 }
 
 /**

@@ -27,7 +27,7 @@ export function tableSeries(t: SeriesTable, sourceNotes: string[], only?: string
     }
     return k;
   });
-  return { ...t, names: pick.map((k) => t.names[k]), column: (j) => t.column(pick[j]), notes };
+  return { ...t, names: pick.map((k) => t.names[k]), column: (j) => t.column(pick[j]), where: (i, j) => t.where(i, j === undefined ? undefined : pick[j]), notes };
 }
 
 /** A file's cells by column, with the header's names (an audit's forecast log). */

@@ -44,7 +44,12 @@ export class Column {
   /** Texts not kept (a label column named as such, past LABEL_TEXT_CAP, when text is not wanted). */
   dropped = 0;
 
-  constructor(readonly name: string, readonly labelByName: boolean, private readonly keepText: boolean) {}
+  /** How messages name the column: `column "sales"` (a long file's series: `series "Harbour Street" (column "sales")`). */
+  title: string;
+
+  constructor(readonly name: string, readonly labelByName: boolean, private readonly keepText: boolean, title?: string) {
+    this.title = title ?? `column "${name}"`;
+  }
 
   add(i: number, field: string): void {
     if (i >= this.kinds.length) this.reserve(Math.max(1024, Math.ceil(this.kinds.length * 1.5)));
@@ -177,7 +182,7 @@ export class CsvColumns {
   cols: Column[] = [];
   /** The first lines as read (for a message naming the likely delimiter). */
   sample: string[] = [];
-  private lineNos = new Int32Array(0);
+  protected lineNos = new Int32Array(0);
 
   /**
    * @param keepLabels keep the text of a label column named as such (for row labels).
@@ -186,8 +191,12 @@ export class CsvColumns {
    */
   constructor(private readonly keepLabels = true, readonly delimiter: Delimiter = ",", readonly delimiterFrom: DelimiterFrom = "default", readonly place: (line: number) => string = (l) => `line ${l}`) {}
 
-  /** Data row i (0-based) in words for messages: "line 12", or the source's own naming. */
-  where(i: number): string {
+  /**
+   * Data row i (0-based) in words for messages: "line 12", or the source's own naming. `j` (the
+   * column of the cell meant) matters only where a row's cells come from different lines (a long file).
+   */
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  where(i: number, j?: number): string {
     return this.place(this.line(i));
   }
 
@@ -215,18 +224,22 @@ export class CsvColumns {
       this.cols = this.header.map((h, j) => new Column(h || `column ${j + 1}`, j === 0 && LABEL_NAMES.test(h), this.keepLabels));
       return;
     }
-    if (fields.length !== this.header.length) {
-      const likely = likelyDelimiter(this.sample, this.delimiter);
-      if (likely && (this.header.length === 1 || fields.length === 1)) {
-        throw new EngineError("input", `Line ${line} has ${fields.length} field${fields.length === 1 ? "" : "s"} but the header has ${this.header.length}: the file's lines hold ${delimiterName(likely)}s, so it is probably ${delimiterName(likely)}-separated. Read it with --delimiter ${likely === "\t" ? "tab" : likely}.`);
-      }
-      const hint = fields.length > this.header.length && this.delimiter === "," ? ' a value with a comma needs quotes ("12,500")' : "";
-      throw new EngineError("input", `Line ${line} has ${fields.length} field${fields.length === 1 ? "" : "s"} but the header has ${this.header.length}. Every row needs one value (or an empty field) per column;${hint || " check the delimiter (--delimiter)"}.`);
-    }
+    this.checkWidth(fields.length, this.header.length, line);
     const i = this.rows++;
     if (i >= this.lineNos.length) this.reserve(Math.max(1024, Math.ceil(this.lineNos.length * 1.5)));
     this.lineNos[i] = line;
     for (let j = 0; j < fields.length; j++) this.cols[j].add(i, fields[j]);
+  }
+
+  /** Refuses a data row whose width differs from the header's, naming the likely delimiter. */
+  protected checkWidth(width: number, headerWidth: number, line: number): void {
+    if (width === headerWidth) return;
+    const likely = likelyDelimiter(this.sample, this.delimiter);
+    if (likely && (headerWidth === 1 || width === 1)) {
+      throw new EngineError("input", `Line ${line} has ${width} field${width === 1 ? "" : "s"} but the header has ${headerWidth}: the file's lines hold ${delimiterName(likely)}s, so it is probably ${delimiterName(likely)}-separated. Read it with --delimiter ${likely === "\t" ? "tab" : likely}.`);
+    }
+    const hint = width > headerWidth && this.delimiter === "," ? ' a value with a comma needs quotes ("12,500")' : "";
+    throw new EngineError("input", `Line ${line} has ${width} field${width === 1 ? "" : "s"} but the header has ${headerWidth}. Every row needs one value (or an empty field) per column;${hint || " check the delimiter (--delimiter)"}.`);
   }
 
   /** Makes room for about n data rows at once (a reader that knows the file's size estimates it). */

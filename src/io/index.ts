@@ -19,3 +19,5 @@ export { parseDecimalOption } from "./options";
 export { csvCell, toCsv } from "./csv-out";
 export { findDateColumn, isDateFormat } from "./cells";
 export type { CellDates } from "./cells";
+export { LongColumns, parseLongSpec, readLongTable } from "./long";
+export type { LongSpec } from "./long";

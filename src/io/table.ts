@@ -58,6 +58,8 @@ export interface ReadOptions {
   decimalFix?: (mark: DecimalMark) => string;
   /** How the face says to use delimiter d (default: "--delimiter ;"). */
   delimiterFix?: (d: string) => string;
+  /** The rows' order means nothing (a long file, one row per series and period): no note when they are not in time order. */
+  rowsInAnyOrder?: boolean;
 }
 
 /** A table read for forecasting: its series in time order, blanks at skipped periods. */
@@ -69,8 +71,12 @@ export interface SeriesTable {
   labelColumn: { name: string; values: string[] } | null;
   /** The file's line of row i, or null for a skipped period (no row in the file). */
   line: (i: number) => number | null;
-  /** Row i in words for messages: "line 12", or "2024-03 (no row in the file)". */
-  where: (i: number) => string;
+  /**
+   * Row i in words for messages: "line 12", or "2024-03 (no row in the file)". With series s (an
+   * index into `names`), the place of that series' cell: in a long file each series' row of that
+   * period has its own line.
+   */
+  where: (i: number, s?: number) => string;
   /** Number of rows (in time order, skipped periods included). */
   rows: number;
   /** The calendar of the period column, when its labels are dates. */
@@ -192,7 +198,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
   const delimiter: Delimiter = cols.delimiter;
   const fix = options.decimalFix ?? ((m: DecimalMark) => `--decimal ${m}`);
   const notes: string[] = [];
-  const fileLine = (i: number): string => cols.where(i);
+  const fileLine = (i: number, j?: number): string => cols.where(i, j);
   // 1. The period column.
   let calCol = -1;
   let lr: LabelReading | null = null;
@@ -233,8 +239,8 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     calendar = calendarFor(labelled, c.name, fileLine);
     keep = calendar.order;
     for (const l of leftOut) notes.push(`${cap(cols.place(l.line))} (${l.label === "" ? "no period label" : `"${l.label}"`}) is not a period; left out.`);
-    if (calendar.reversed) notes.push(`The rows were newest first; they are read in time order.`);
-    if (calendar.sorted) notes.push(`The rows were not in time order; they are read sorted by "${c.name}".`);
+    if (calendar.reversed && !options.rowsInAnyOrder) notes.push(`The rows were newest first; they are read in time order.`);
+    if (calendar.sorted && !options.rowsInAnyOrder) notes.push(`The rows were not in time order; they are read sorted by "${c.name}".`);
     if (calendar.skipped.length) notes.push(`No row for ${listOf(calendar.skipped)}: ${calendar.skipped.length === 1 ? "that period is" : "those periods are"} a missing observation (blank) at ${calendar.skipped.length === 1 ? "its" : "their"} place.`);
   }
   if (seriesIdx.length === 0) {
@@ -258,7 +264,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     if (options.decimal) { mark = options.decimal; from = "option"; }
     else if (x.dot || x.comma) {
       if (x.dot === x.comma) {
-        problem = `Column "${c.name}" mixes decimal points and decimal commas (${fileLine(x.firstDot)}: "${c.text(x.firstDot)}", ${fileLine(x.firstComma)}: "${c.text(x.firstComma)}"). Write its numbers one way, or force the mark with ${fix(",")} or ${fix(".")}.`;
+        problem = `${cap(c.title)} mixes decimal points and decimal commas (${fileLine(x.firstDot, j)}: "${c.text(x.firstDot)}", ${fileLine(x.firstComma, j)}: "${c.text(x.firstComma)}"). Write its numbers one way, or force the mark with ${fix(",")} or ${fix(".")}.`;
       }
       mark = x.dot >= x.comma ? "." : ",";
       from = "values";
@@ -269,7 +275,7 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
       mark = ".";
       from = "values";
       const t = c.text(x.firstAmbiguous);
-      problem = `Column "${c.name}" has numbers like "${t}" (${fileLine(x.firstAmbiguous)}) that read differently with a decimal point or a decimal comma, and nothing in the file decides it. Say which with ${fix(".")} or ${fix(",")}.`;
+      problem = `${cap(c.title)} has numbers like "${t}" (${fileLine(x.firstAmbiguous, j)}) that read differently with a decimal point or a decimal comma, and nothing in the file decides it. Say which with ${fix(".")} or ${fix(",")}.`;
     }
     marks.push(mark);
     problems.push(problem);
@@ -326,9 +332,9 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
       }
     }
     if (bad.length) {
-      const shown = bad.slice(0, 3).map((i) => `${fileLine(i)}: "${c.text(i)}"`).join(", ");
+      const shown = bad.slice(0, 3).map((i) => `${fileLine(i, j)}: "${c.text(i)}"`).join(", ");
       const other: DecimalMark = mark === "." ? "," : ".";
-      throw new EngineError("input", `Column "${c.name}" has ${bad.length === 1 ? "a value" : `${bad.length} values`} that cannot be read as ${bad.length === 1 ? "a number" : "numbers"} with the decimal mark "${mark}" (${shown}${bad.length > 3 ? ", …" : ""}). Correct ${bad.length === 1 ? "it" : "them"}, or ${rep.decimalFrom === "option" ? "give the other mark" : "force the mark"} with ${fix(other)}.`);
+      throw new EngineError("input", `${cap(c.title)} has ${bad.length === 1 ? "a value" : `${bad.length} values`} that cannot be read as ${bad.length === 1 ? "a number" : "numbers"} with the decimal mark "${mark}" (${shown}${bad.length > 3 ? ", …" : ""}). Correct ${bad.length === 1 ? "it" : "them"}, or ${rep.decimalFrom === "option" ? "give the other mark" : "force the mark"} with ${fix(other)}.`);
     }
     rep.thousands = Array.from(thousands);
     rep.currency = Array.from(currency);
@@ -344,14 +350,15 @@ export function readTable(cols: CsvColumns, options: ReadOptions = {}): SeriesTa
     labelColumn = { name: c.name, values: Array.from({ length: rows }, (_, i) => c.text(i)) };
   }
   const line = (i: number): number | null => (keep[i] === undefined ? null : keep[i] < 0 ? null : cols.line(keep[i]));
-  const where = (i: number): string => {
+  const where = (i: number, s?: number): string => {
     const l = line(i);
-    return l === null ? `${calendar?.labels[i] ?? `row ${i + 1}`} (no row in the file)` : cols.place(l);
+    if (l === null) return `${calendar?.labels[i] ?? `row ${i + 1}`} (no row in the file)`;
+    return s === undefined || seriesIdx[s] === undefined ? cols.place(l) : cols.where(keep[i], seriesIdx[s]);
   };
   const dates: DatesReading | null = calendar && calCol >= 0 ? {
     column: cols.cols[calCol].name, format: calendar.format, frequency: calendar.frequency,
     first: calendar.labels[0], last: calendar.labels[calendar.labels.length - 1],
-    skipped: calendar.skipped, reversed: calendar.reversed, sorted: calendar.sorted,
+    skipped: calendar.skipped, reversed: calendar.reversed && !options.rowsInAnyOrder, sorted: calendar.sorted && !options.rowsInAnyOrder,
   } : null;
   const reading: Reading = {
     delimiter: cols.delimiterFrom === "workbook" ? "none" : delimiter === "\t" ? "tab" : delimiter,

@@ -1,6 +1,6 @@
 // fanwise screen: is each series ready for a Box-Cox transform, and if not, what to do.
 import { screenSeries } from "../../engine";
-import { Command, COMMON, IO_OPTIONS } from "../command";
+import { Command, COMMON, SERIES_IO_OPTIONS } from "../command";
 import { emit } from "../output";
 import { lineOf, periodOf, readSeriesFile, reportReading, ZEROS_OPTION_CLI, zerosOf } from "../series-input";
 
@@ -8,12 +8,12 @@ export const screenCommand: Command = {
   name: "screen",
   summary: "check each series: blanks, text cells, values ≤ 0, a suggested λ",
   args: "FILE",
-  options: { period: COMMON.period, zeros: COMMON.zeros, ...IO_OPTIONS },
+  options: { period: COMMON.period, zeros: COMMON.zeros, ...SERIES_IO_OPTIONS },
   examples: ["fanwise screen sales.csv --period 12", "fanwise screen book.xlsx --sheet Sales --series \"Harbour Street\""],
   async run(p, io) {
     const data = await readSeriesFile(p, io);
     const { period, periodFrom } = periodOf(p, data);
-    const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI }));
+    const results = data.names.map((name, j) => screenSeries(data.column(j), { period, label: name, where: lineOf(data, j), zeros: zerosOf(p), zerosOption: ZEROS_OPTION_CLI }));
     await emit(io, p, {
       command: "screen",
       json: () => {
