@@ -10,7 +10,7 @@ const NO_MATHJS_PARSER = {
 };
 
 module.exports = tseslint.config(
-  { ignores: ["node_modules/", "dist/", "build/", "coverage/", "test-output/", "demo-out/", "bench/out/"] },
+  { ignores: ["node_modules/", "dist/", "build/", "coverage/", "test-output/", "demo-out/", "bench/out/", ".stryker-tmp/", "reports/"] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

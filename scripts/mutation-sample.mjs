@@ -5,6 +5,7 @@
 // node with a sampled one; the score is computed on the sampled mutants only.
 import fs from "node:fs";
 import path from "node:path";
+import process from "node:process";
 import { PluginKind, declareValuePlugin } from "@stryker-mutator/api/plugin";
 
 const listFile = process.env.FANWISE_MUTATION_SAMPLE;

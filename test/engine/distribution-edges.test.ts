@@ -83,7 +83,7 @@ describe("degenerate and noted forecasts", () => {
     expect(m.note).toMatch(/unbounded/);
   });
   test("no transform: the mean is μ whatever σ, reported as exact with no correction", () => {
-    const m = forecastMean(makeTransform("none"), 120, 15, "taylor");
+    const m = forecastMean(makeTransform("none", null), 120, 15, "taylor");
     expect(m.value).toBe(120);
     expect(m.used).toBe("exact");
     expect(m.correction).toBe(0);
