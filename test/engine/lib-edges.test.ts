@@ -1,6 +1,6 @@
 // Edges of the numerical helpers that the mutation run (MUTATION.md §2) found unguarded. Expected
 // values are worked by hand in the comments (linear algebra) or are numpy's documented defaults.
-import { solveSymmetric } from "../../src/engine/_lib/cholesky";
+import { semidefiniteFactor, solveSymmetric } from "../../src/engine/_lib/cholesky";
 import { choleskyLower } from "../../src/engine/_lib/cholesky-factor";
 import { sortedQuantile } from "../../src/engine/_lib/sorted-quantile";
 
@@ -47,5 +47,14 @@ describe("sample quantiles by linear interpolation (Hyndman & Fan 1996 definitio
     expect(sortedQuantile(s, 0.9)).toBeCloseTo(3.7, 14);
     expect(sortedQuantile(s, 1)).toBe(4);
     expect(sortedQuantile([7], 0.3)).toBe(7);
+  });
+});
+
+describe("the factor of a singular covariance (draws from N(0, P) with P only semi-definite)", () => {
+  test("P = [[4, 2], [2, 1]] (rank 1) gives C = [[2, 0], [1, 0]], also when P is scaled by 1e-20 (the zero-pivot tolerance is relative)", () => {
+    for (const s of [1, 1e-20]) {
+      const C = semidefiniteFactor(new Float64Array([4, 2, 2, 1].map((v) => v * s)), 2);
+      [2, 0, 1, 0].forEach((v, i) => expect(C[i] / Math.sqrt(s)).toBeCloseTo(v, 12));
+    }
   });
 });

@@ -1,6 +1,6 @@
 // Edges of the model layer that the mutation run (MUTATION.md §2) found unguarded. Expected values
 // come from closed forms (the lognormal mean; the shift rule stated in the README) computed here.
-import { describeForecaster, fitForecast } from "../../src/engine";
+import { aiccOf, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit } from "../../src/engine";
 
 describe("the model description's mean rows (the lognormal closed forms)", () => {
   test("log scale: 'Taylor vs exact mean at step 1' is 100·((1 + σ²/2)/e^{σ²/2} − 1)", () => {
@@ -23,5 +23,25 @@ describe("messages for values Box-Cox cannot take, and for λ out of range", () 
   });
   test("λ outside −5…5 is refused with the range", () => {
     expect(() => fitForecast([1, 2, 3, 4, 5, 6], { method: "naive", lambda: 7 })).toThrow(/lambda must be between -5 and 5/);
+  });
+});
+
+describe("the original-scale fit counts λ as a parameter only when it was estimated (Box & Cox 1964; AICc: Hurvich & Tsai 1989)", () => {
+  test("given λ: k is the model's own count; estimated λ: one more, and the AICc follows 2k − 2ℓ + 2k(k + 1)/(n − k − 1)", () => {
+    // INVENTED monthly costs of a shop.
+    const y = Array.from({ length: 48 }, (_, i) => 300 * Math.exp(0.005 * i + 0.06 * Math.sin(0.9 * i)));
+    const t = makeTransform("box-cox", 0);
+    const m = fitSmoothing(y.map(Math.log), "ses", 1);
+    const given = originalScaleFit(m, y, t, false);
+    const estimated = originalScaleFit(m, y, t, true);
+    expect(given.k).toBe(m.k);
+    expect(estimated.k).toBe(m.k + 1);
+    const n = m.residuals.length;
+    for (const f of [given, estimated]) {
+      expect(f.aicc).toBeCloseTo(2 * f.k - 2 * f.loglik + (2 * f.k * (f.k + 1)) / (n - f.k - 1), 9);
+      expect(f.aicc).toBeCloseTo(aiccOf(f.loglik, f.k, n), 12);
+    }
+    // and no transform never counts a λ
+    expect(originalScaleFit(m, y, makeTransform("none", null), true).k).toBe(m.k);
   });
 });
