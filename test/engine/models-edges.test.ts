@@ -1,6 +1,6 @@
 // Edges of the model layer that the mutation run (MUTATION.md §2) found unguarded. Expected values
 // come from closed forms (the lognormal mean; the shift rule stated in the README) computed here.
-import { aiccOf, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit } from "../../src/engine";
+import { aiccOf, autoArima, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit } from "../../src/engine";
 
 describe("the model description's mean rows (the lognormal closed forms)", () => {
   test("log scale: 'Taylor vs exact mean at step 1' is 100·((1 + σ²/2)/e^{σ²/2} − 1)", () => {
@@ -43,5 +43,18 @@ describe("the original-scale fit counts λ as a parameter only when it was estim
     }
     // and no transform never counts a λ
     expect(originalScaleFit(m, y, makeTransform("none", null), true).k).toBe(m.k);
+  });
+});
+
+describe("the automatic ARIMA search says how it chose d and the order, and nothing else", () => {
+  test("a non-seasonal random walk with drift: KPSS notes (5% critical value 0.463, Kwiatkowski et al. 1992), then the stepwise search's note", () => {
+    // INVENTED: a seeded-looking deterministic walk (sum of a fixed sine-like sequence plus drift).
+    const w: number[] = [];
+    let x = 5;
+    for (let i = 0; i < 80; i++) { x += 0.02 + 0.1 * Math.sin(2.3 * i) * Math.cos(0.7 * i); w.push(x); }
+    const r = autoArima(w, 1);
+    expect(r.notes.length).toBeGreaterThanOrEqual(2);
+    for (const n of r.notes.slice(0, -1)) expect(n).toMatch(/^KPSS after \d+ differences?: \d+\.\d{3} (≤|>) 0\.463 \(5%\)/);
+    expect(r.notes[r.notes.length - 1]).toMatch(/^Stepwise search by AICc \(Hyndman & Khandakar 2008\): \d+ models tried; ARIMA/);
   });
 });

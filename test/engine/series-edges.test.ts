@@ -1,5 +1,5 @@
 // Edges of the series checks that the mutation run (MUTATION.md §2) found unguarded.
-import { requirePositiveSeries, screenSeries } from "../../src/engine";
+import { cleanSeries, requirePositiveSeries, screenSeries } from "../../src/engine";
 
 describe("zeros read as closed periods only when each sits alone between positive values", () => {
   // INVENTED monthly sales of a shop; a zero is a month it was closed.
@@ -25,5 +25,12 @@ describe("counts in messages agree in number (common practice)", () => {
   test("a one-value series is 'it has 1 value', two are '2 values'", () => {
     expect(() => requirePositiveSeries([5], 3, "the series", "a forecast")).toThrow(/it has 1 value, at least 3/);
     expect(() => requirePositiveSeries([5, 6], 3, "the series", "a forecast")).toThrow(/it has 2 values, at least 3/);
+  });
+});
+
+describe("zeros read as missing at the very end leave nothing to forecast from: the message names the rows", () => {
+  test("one trailing zero: 'row 6 is a zero'; two: 'rows 5, 6 are zeros' (rows counted from the first row, 1)", () => {
+    expect(() => cleanSeries([5, 6, 7, 8, 0], "Shop", 2, { zeros: "missing" })).toThrow(/row 6 is a zero, read as missing, after the last observed value \(row 5\)/);
+    expect(() => cleanSeries([5, 6, 7, 0, 0], "Shop", 2, { zeros: "missing" })).toThrow(/rows 5, 6 are zeros, read as missing, after the last observed value \(row 4\)/);
   });
 });
