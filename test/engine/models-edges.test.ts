@@ -1,6 +1,7 @@
 // Edges of the model layer that the mutation run (MUTATION.md §2) found unguarded. Expected values
 // come from closed forms (the lognormal mean; the shift rule stated in the README) computed here.
-import { aiccOf, autoArima, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit } from "../../src/engine";
+import { aiccOf, ARIMA_LIMITS, autoArima, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit } from "../../src/engine";
+import { dataset } from "../helpers/reference";
 
 describe("the model description's mean rows (the lognormal closed forms)", () => {
   test("log scale: 'Taylor vs exact mean at step 1' is 100·((1 + σ²/2)/e^{σ²/2} − 1)", () => {
@@ -56,5 +57,33 @@ describe("the automatic ARIMA search says how it chose d and the order, and noth
     expect(r.notes.length).toBeGreaterThanOrEqual(2);
     for (const n of r.notes.slice(0, -1)) expect(n).toMatch(/^KPSS after \d+ differences?: \d+\.\d{3} (≤|>) 0\.463 \(5%\)/);
     expect(r.notes[r.notes.length - 1]).toMatch(/^Stepwise search by AICc \(Hyndman & Khandakar 2008\): \d+ models tried; ARIMA/);
+  });
+});
+
+describe("the stepwise ARIMA search ends at a local minimum of its own step set (Hyndman & Khandakar 2008, §3.2)", () => {
+  test("log AirPassengers (open dataset), period 12: every valid neighbour of the chosen order was tried and has no lower AICc", () => {
+    const r = autoArima(dataset("AirPassengers").map(Math.log), 12);
+    expect(r.notes.join(" ")).not.toMatch(/stopped after/);
+    const o = r.model.order;
+    const key = (x: typeof o): string => `${x.p},${x.q},${x.P},${x.Q},${x.constant ? 1 : 0}`;
+    const tried = new Map(r.tried.map((t) => [key(t.order), t.aicc]));
+    const best = tried.get(key(o)) as number;
+    // the paper's moves: p, q, P, Q by ±1; p and q together; P and Q together; the constant in or out
+    // (allowed when d + D ≤ 1)
+    const moves: Array<Partial<typeof o>> = [];
+    for (const dp of [-1, 1]) {
+      moves.push({ p: o.p + dp }, { q: o.q + dp }, { p: o.p + dp, q: o.q + dp }, { P: o.P + dp }, { Q: o.Q + dp }, { P: o.P + dp, Q: o.Q + dp });
+    }
+    if (o.d + o.D <= 1) moves.push({ constant: !o.constant });
+    let checked = 0;
+    for (const mv of moves) {
+      const v = { ...o, ...mv };
+      const ok = v.p >= 0 && v.q >= 0 && v.P >= 0 && v.Q >= 0 && v.p <= ARIMA_LIMITS.p && v.q <= ARIMA_LIMITS.q && v.P <= ARIMA_LIMITS.P && v.Q <= ARIMA_LIMITS.Q && v.p + v.q + v.P + v.Q <= 5;
+      if (!ok) continue;
+      checked++;
+      expect(tried.has(key(v))).toBe(true);
+      expect(tried.get(key(v)) as number).toBeGreaterThanOrEqual(best - 1e-9);
+    }
+    expect(checked).toBeGreaterThanOrEqual(6);
   });
 });
