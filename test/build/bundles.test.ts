@@ -15,7 +15,7 @@ const read = (f: string): string => {
 const gzipSize = (f: string): number => zlib.gzipSync(fs.readFileSync(path.join(DIST, f)), { level: 9 }).length;
 
 /** Gzip budgets in KiB (gzip -9). Raise one only with a reason in bench/README.md. */
-export const BUDGET_KIB = { "functions.js": 108, "taskpane.js": 134 } as const;
+export const BUDGET_KIB = { "functions.js": 112, "taskpane.js": 138 } as const;
 
 describe("size budgets (gzip -9)", () => {
   for (const [f, kib] of Object.entries(BUDGET_KIB)) {
