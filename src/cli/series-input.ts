@@ -171,9 +171,13 @@ export function lineOf(data: SeriesData, j?: number): (i: number) => string {
  */
 export function atLines(message: string, data: SeriesData, j?: number): string {
   // (a workbook's place already reads "row N of sheet …", which is left as it is)
-  return message.replace(/\b(rows?) (\d+(?:, \d+)*)\b(?! of sheet)/g, (_m, word: string, list: string) => {
+  // A place that carries its own parenthesis ("07.1951 (no row for Mühlweg)") inside the message's
+  // parentheses is written "07.1951: no row for Mühlweg", so no parentheses are doubled.
+  return message.replace(/\b(rows?) (\d+(?:, \d+)*)\b(?! of sheet)/g, (m: string, word: string, list: string, at: number) => {
     const places = list.split(", ").map((r) => data.where(Number(r) - 1, j));
     if (places.every((x) => x.startsWith("line "))) return `${word === "rows" ? "lines" : "line"} ${places.map((x) => x.slice(5)).join(", ")}`;
+    const inParens = message[at - 1] === "(" && message[at + m.length] === ")";
+    if (inParens && places.some((x) => / \(.*\)$/.test(x))) return places.map((x) => x.replace(/ \((.*)\)$/, ": $1")).join("; ");
     return places.join(", ");
   });
 }

@@ -57,7 +57,7 @@ export class LongColumns extends CsvColumns {
   private cellLines: Int32Array[] = [];
   private capacity = 16;
 
-  constructor(readonly spec: LongSpec, private readonly keepText = false, delimiter: Delimiter = ",", delimiterFrom: DelimiterFrom = "default", place: (line: number) => string = (l) => `line ${l}`, private readonly option = "--long") {
+  constructor(readonly spec: LongSpec, private readonly keepText = false, delimiter: Delimiter = ",", delimiterFrom: DelimiterFrom = "default", place: (line: number) => string = (l) => `line ${l}`, readonly option = "--long") {
     super(false, delimiter, delimiterFrom, place);
     this.lineNos = new Int32Array(this.capacity);
   }
@@ -215,7 +215,7 @@ export class LongColumns extends CsvColumns {
  * @example readLongTable(long).names // ["Harbour Street", "Old Quay"]
  */
 export function readLongTable(cols: LongColumns, options: ReadOptions = {}): SeriesTable {
-  const t = readTable(cols, { ...options, rowsInAnyOrder: true });
+  const t = withoutEmptySeries(readTable(cols, { ...options, rowsInAnyOrder: true }), cols);
   const notes = t.reading.notes;
   if (cols.unnamed.length) {
     const n = cols.unnamed.length;
@@ -246,4 +246,42 @@ export function readLongTable(cols: LongColumns, options: ReadOptions = {}): Ser
   for (const n of totals) notes.push(`Series "${n}" looks like a total of the others; it is read as a series of its own (leave it out with --series if it is one).`);
   t.reading.ignored.push(...cols.unused);
   return t;
+}
+
+/**
+ * The table without the series none of whose rows was kept: a long file's total row with a series
+ * name but no period (`Summe;;99.999,00`) makes a series whose only row is left out as "not a
+ * period"; it is dropped with a note naming its lines rather than read as a series with no values.
+ * Throws when no series is left. Common practice (a total row is not a series).
+ * @example withoutEmptySeries(readTable(cols), cols).names // ["Hafen", "Mühlweg"] (without "Summe")
+ */
+function withoutEmptySeries(t: SeriesTable, cols: LongColumns): SeriesTable {
+  const columnOf = new Map(cols.header.map((h, j) => [h, j]));
+  const order = t.calendar ? t.calendar.order : Int32Array.from({ length: cols.rows }, (_, i) => i);
+  const keptRow = (j: number): boolean => {
+    for (const r of order) if (r >= 0 && cols.hasRow(j, r)) return true;
+    return false;
+  };
+  const kept: number[] = [];
+  const dropped: string[] = [];
+  t.names.forEach((name, s) => {
+    if (keptRow(columnOf.get(name) as number)) kept.push(s);
+    else dropped.push(name);
+  });
+  if (dropped.length === 0) return t;
+  if (kept.length === 0) {
+    throw new EngineError("input", `No series has a row with a period: every row was left out (${t.reading.notes.join(" ")}). Check the period column "${cols.spec.period}" of ${cols.option}.`);
+  }
+  for (const name of dropped) {
+    const j = columnOf.get(name) as number;
+    const lines: string[] = [];
+    for (let r = 0; r < cols.rows && lines.length < 3; r++) if (cols.hasRow(j, r)) lines.push(cols.where(r, j));
+    t.reading.notes.push(`Series "${name}" has no row with a period (${lines.join(", ")}: left out above), so it is not read (a total row is not a series).`);
+  }
+  return {
+    ...t,
+    names: kept.map((s) => t.names[s]),
+    column: (s) => t.column(kept[s]),
+    where: (i, s) => t.where(i, s === undefined ? undefined : kept[s]),
+  };
 }

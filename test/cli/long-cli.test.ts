@@ -122,6 +122,37 @@ describe("how a long file is read, and what is refused (invented Quillmere shop 
     expect(j.series["Old Quay"].n).toBe(6);
     expect(j.reading.leftOut).toEqual([{ line: 20, label: "Total" }]);
   });
+  test("a total row with a series name but no period (Summe;;99.999,00) is left out with its series, not read as an empty series; a gap is named without doubled parentheses", async () => {
+    // Invented: two shops, semicolons and decimal commas as a German export writes them, one month
+    // missing for one shop, and a grand-total row at the bottom with a name but no period.
+    const months = ["01", "02", "03", "04", "05", "06", "07", "08"];
+    const f = file("summe.csv", [
+      "Filiale;Monat;Umsatz",
+      ...months.map((m, k) => `Hafen;${m}.2024;"${(1120 + 10 * k).toLocaleString("de-DE")},00"`),
+      ...months.filter((m) => m !== "04").map((m, k) => `Mühlweg;${m}.2024;"${800 + 5 * k},50"`),
+      'Summe;;"99.999,00"',
+    ].join("\n") + "\n");
+    const r = await run(["fan", f, "--long", "Filiale,Monat,Umsatz", "--horizon", "1", "--method", "naive"]);
+    expect(r.code).toBe(0);
+    expect(r.err.trim().split("\n")).toEqual([
+      "fanwise: note: Line 17 (no period label) is not a period; left out.",
+      'fanwise: note: Series "Summe" has no row with a period (line 17: left out above), so it is not read (a total row is not a series).',
+      "fanwise: note: No row for some periods inside a series: Mühlweg (2024-04). Each is a missing observation (blank) at its place.",
+    ]);
+    const rows = r.out.trim().split("\n").slice(1);
+    expect(rows.map((l) => l.split(",")[0])).toEqual(["Hafen", "Mühlweg"]);
+    // naive: the median of the next month is the last value (Hafen 1,190.00; Mühlweg 830.50).
+    expect(rows.map((l) => Number(l.split(",")[6]))).toEqual([1190, 830.5]);
+    expect(r.out).toContain("(04.2024: no row for Mühlweg)");
+    expect(r.out).not.toMatch(/\([^()]*\([^()]*\)\)/);
+    const j = JSON.parse((await run(["screen", f, "--long", "Filiale,Monat,Umsatz", "--json"])).out);
+    expect(Object.keys(j.series)).toEqual(["Hafen", "Mühlweg"]);
+    // Only a total row: too short to forecast, said so (no period column to leave it out by).
+    const only = file("only-summe.csv", 'Filiale;Monat;Umsatz\nSumme;;"99.999,00"\n');
+    const o = await run(["fan", only, "--long", "Filiale,Monat,Umsatz", "--horizon", "1"]);
+    expect(o.code).toBe(1);
+    expect(o.err).toMatch(/^fanwise: Summe: Summe is too short to forecast: it has 1 value/);
+  });
   test("a wrong column name lists the file's columns (and a near miss)", async () => {
     const f = file("cols.csv", "store,month,sales,currency\nOld Quay,2024-01,5,EUR\n");
     const r = await run(["screen", f, "--long", "store,Month,sales"]);
