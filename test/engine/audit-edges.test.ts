@@ -1,5 +1,6 @@
 // Edges of the audit and the backtest that the mutation run (MUTATION.md §2) found unguarded.
-import { auditLog, backtest } from "../../src/engine";
+import { auditLog, backtest, crpsBacktransformed, intervalScore } from "../../src/engine";
+import { practicalMinimum } from "../../src/engine/audit/backtest";
 
 describe("a log's unreadable interval end is named by its column and level (common practice: say what to fix)", () => {
   test("text in the upper column at 95% names 'upper (95%)' and the row", () => {
@@ -26,5 +27,51 @@ describe("a backtest step that no origin reaches has no statistics rather than m
       expect(r.kupiecP).toBeNull();
       expect(r.verdict).toBeNull();
     }
+  });
+});
+
+describe("the CRPS of a back-transformed forecast (seed-20 mutation sample, MUTATION.md §2)", () => {
+  // λ = 0: the log-normal closed form of Baran & Lerch (2015, Q. J. R. Meteorol. Soc. 141:2289–2299),
+  // CRPS = y(2Φ(z₀) − 1) − 2e^{μ+σ²/2}[Φ(z₀ − σ) + Φ(σ/√2) − 1], z₀ = (ln y − μ)/σ, evaluated with
+  // mpmath 1.3 at 1,200 digits, rounded to doubles (the bracket cancels badly in doubles for wide fans).
+  test.each([
+    [0, 3, 2, 2.9103338377168315],
+    [1, 5, 10, 297.329935007012],
+    [2, 10, 1.5, 58900207732.0334],
+    [0, 20, 1, 1.5091356495324477e42],
+    [5, 50, 100, 9.09205199322015e271],
+  ])("λ = 0, μ = %d, σ = %d, y = %d: the log-normal closed form to 1e-12", (mu, s, y, want) => {
+    // (with 1 − Φ(z) in the upper tail, σ = 10 was off by 7e-7 and σ = 50 by 122 orders of magnitude)
+    const got = crpsBacktransformed(mu, s, 0, y);
+    expect(Math.abs(got - want) / want).toBeLessThan(1e-12);
+  });
+  test("λ = ½ and ¼: ∫(F(x) − 1{x ≥ y})² dx, the definition (Matheson & Winkler 1976), by mpmath quadrature at 30 digits", () => {
+    expect(Math.abs(crpsBacktransformed(3, 2, 0.5, 20) / 10.10518209896114 - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(crpsBacktransformed(3, 8, 0.25, 5) / 20.66786339750117 - 1)).toBeLessThan(1e-12);
+  });
+  test("a CRPS beyond the largest double is refused as unavailable, not returned as a smaller number", () => {
+    // e^{μ+σ²/2} = e^{20005}: the closed form's terms are far past 1.8e308.
+    expect(() => crpsBacktransformed(5, 200, 0, 1)).toThrow(expect.objectContaining({ code: "unavailable", message: expect.stringMatching(/too large to represent/) }));
+  });
+});
+
+describe("the interval score's inputs (Gneiting & Raftery 2007, eq. 43: defined for lower ≤ upper and 0 < α < 1)", () => {
+  test("a lower end above the upper end is refused, naming both", () => {
+    expect(() => intervalScore(5, 3, 4, 0.05)).toThrow(/lower end \(5\) is above the upper end \(3\)/);
+    expect(intervalScore(3, 3, 3, 0.05)).toBe(0);
+  });
+  test("α of 0 or 1 is refused", () => {
+    for (const a of [0, 1, 1.5]) expect(() => intervalScore(1, 2, 1.5, a)).toThrow(/α must be strictly between 0 and 1/);
+  });
+});
+
+describe("the backtest's first fitting window (common practice: two full seasons only for a seasonal method)", () => {
+  test("a non-seasonal method at period 12 needs the stated minimum of 10 values, not two seasons; seasonal naive needs 24", () => {
+    for (const m of ["naive", "mean", "drift", "ses", "holt"]) expect(practicalMinimum(m, 12)).toEqual({ length: 10, reason: "the stated minimum of 10 values" });
+    expect(practicalMinimum("seasonal-naive", 12)).toEqual({ length: 24, reason: "two full seasons of 12" });
+  });
+  test("first = 1 is refused with the rule (at least 2), not read as a window of one value", () => {
+    const y = Array.from({ length: 30 }, (_, i) => 100 + i); // INVENTED
+    expect(() => backtest(y, 1, { method: "naive", lambda: "none", first: 1 })).toThrow(/first must be a whole number of at least 2/);
   });
 });

@@ -56,7 +56,9 @@ export function crpsNormal(mu: number, sigma: number, y: number): number {
  * original scale, as 2∫₀¹ pinball_p(Q(p), y) dp with Q(p) = f(μ + σ z_p), integrated in z
  * (p = Φ(z)) by adaptive Gauss–Kronrod (Gneiting & Raftery 2007, eq. 21 with the quantile
  * representation of Laio & Tamea 2007). For λ < 0 the normal puts mass past the pole, so the
- * CRPS (like the mean) does not exist: an `unavailable` EngineError says so.
+ * CRPS (like the mean) does not exist: an `unavailable` EngineError says so, as it does when the
+ * CRPS is too large for a double. For λ = 0 it equals the log-normal closed form of Baran & Lerch
+ * (2015, Q. J. R. Meteorol. Soc. 141:2289–2299).
  * @example crpsBacktransformed(5, 0.1, 0, 150) // ≈ 4.2
  */
 export function crpsBacktransformed(mu: number, sigma: number, lambda: number, y: number): number {
@@ -65,12 +67,25 @@ export function crpsBacktransformed(mu: number, sigma: number, lambda: number, y
   requireLambda(lambda);
   requireFinite(y, "actual");
   if (lambda < -1e-14) throw new EngineError("unavailable", `The CRPS does not exist for λ = ${lambda} < 0: the forecast puts probability past the pole, where values are unbounded.`);
+  const logScale = Math.abs(lambda) < 1e-14;
   const f = (z: number): number => {
-    const p = normalCdf(z);
-    if (p <= 0 || p >= 1) return 0;
-    const q = boxCoxInverseDetailed(mu + sigma * z, lambda).value;
+    const w = mu + sigma * z;
+    const q = boxCoxInverseDetailed(w, lambda).value;
+    if (!Number.isFinite(q)) {
+      // Q(p) overflows a double: the term 2·Φ(−z)·(Q − y)·φ(z) ≈ 2·Φ(−z)·Q·φ(z), in logs. Past
+      // z ≈ 38 Φ(−z) underflows too: there Φ(−z) = φ(z)/z·(1 − 1/z² + O(z⁻⁴)) (Mills ratio). A term
+      // that still overflows makes the CRPS too large to represent (Infinity, refused below).
+      const logQ = logScale ? w : Math.log1p(lambda * w) / lambda;
+      const tail = normalCdf(-z);
+      const logPdf = -0.5 * z * z - 0.5 * Math.log(2 * Math.PI);
+      if (tail > 0) return 2 * Math.exp(Math.log(tail) + logQ + logPdf);
+      return 2 * Math.exp(logQ + 2 * logPdf - Math.log(z) + Math.log1p(-1 / (z * z)));
+    }
     const d = y - q;
-    return 2 * (d >= 0 ? p * d : (p - 1) * d) * normalPdf(z);
+    // pinball loss at p = Φ(z): p·d where y ≥ Q, (1 − p)·(Q − y) where y < Q, with 1 − p = Φ(−z)
+    // computed as such (1 − Φ(z) loses every digit in the upper tail, where a wide fan's CRPS lives).
+    const loss = d >= 0 ? normalCdf(z) * d : normalCdf(-z) * -d;
+    return loss === 0 ? 0 : 2 * loss * normalPdf(z);
   };
   // the integrand is smooth except where Q(p) = y; split there
   const zy = y > 0 ? (lambda === 0 || Math.abs(lambda) < 1e-14 ? (Math.log(y) - mu) / sigma : ((Math.pow(y, lambda) - 1) / lambda - mu) / sigma) : -40;
@@ -78,5 +93,7 @@ export function crpsBacktransformed(mu: number, sigma: number, lambda: number, y
   const mid = Math.min(Math.max(zy, a), b);
   const left = mid > a ? integrate(f, a, mid, 1e-12).value : 0;
   const right = mid < b ? integrate(f, mid, b, 1e-12).value : 0;
-  return left + right;
+  const crps = left + right;
+  if (!Number.isFinite(crps)) throw new EngineError("unavailable", `The CRPS is too large to represent for mu = ${mu}, sd = ${sigma} on the Box-Cox scale λ = ${lambda}: the forecast's upper tail is unbounded in double precision.`);
+  return crps;
 }
