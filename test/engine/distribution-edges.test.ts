@@ -41,6 +41,7 @@ describe("argument checks name the argument (common practice: never a NaN out of
   });
   test("a chi-square statistic that is not a number is refused (never a NaN p-value)", () => {
     expect(thrown(() => chiSquareSf(Number.NaN, 1)).code).toBe("domain");
+    expect(thrown(() => chiSquareSf(Number.NaN, 2)).message).toBe("chi-square statistic is not a number.");
   });
   test("a published interval whose lower end is not positive is refused, naming the lower end", () => {
     const e = thrown(() => meanFromInterval(100, 0, 200, 95));
@@ -96,5 +97,17 @@ describe("degenerate and noted forecasts", () => {
     expect(m.accuracy).toMatch(/16% of the normal forecast on the λ = 1 scale falls below the floor/);
     // and none when the floor is out of reach: λ = 1, μ = 100, σ = 1
     expect(forecastMean(makeTransform("box-cox", 1), 100, 1).accuracy).toBeNull();
+  });
+});
+
+describe("an exact mean too large for a double is said in the result, not thrown (seed-20 mutation sample)", () => {
+  test("λ = 0, μ = 709.5, σ = 1: e^{μ+σ²/2} = e^{710} is past the largest double (e^{709.78}, IEEE 754): no value, the note says why", () => {
+    for (const method of ["exact", "auto"] as const) {
+      const r = forecastMean(makeTransform("box-cox", 0), 709.5, 1, method);
+      expect(r.value).toBeNull();
+      expect(r.note).toMatch(/too large/);
+    }
+    // one step inside: e^{709} is a double, and the exact mean is exactly it (μ = 708.5, σ = 1)
+    expect(forecastMean(makeTransform("box-cox", 0), 708.5, 1, "exact").value).toBe(Math.exp(709));
   });
 });

@@ -1,5 +1,5 @@
 // Edges of the series checks that the mutation run (MUTATION.md §2) found unguarded.
-import { cleanSeries, requirePositiveSeries, screenSeries } from "../../src/engine";
+import { cleanSeries, isHeaderRow, requirePositiveSeries, screenSeries } from "../../src/engine";
 
 describe("zeros read as closed periods only when each sits alone between positive values", () => {
   // INVENTED monthly sales of a shop; a zero is a month it was closed.
@@ -32,5 +32,22 @@ describe("zeros read as missing at the very end leave nothing to forecast from: 
   test("one trailing zero: 'row 6 is a zero'; two: 'rows 5, 6 are zeros' (rows counted from the first row, 1)", () => {
     expect(() => cleanSeries([5, 6, 7, 8, 0], "Shop", 2, { zeros: "missing" })).toThrow(/row 6 is a zero, read as missing, after the last observed value \(row 5\)/);
     expect(() => cleanSeries([5, 6, 7, 0, 0], "Shop", 2, { zeros: "missing" })).toThrow(/rows 5, 6 are zeros, read as missing, after the last observed value \(row 4\)/);
+  });
+});
+
+describe("seed-20 mutation sample: option checks, the header rule, where the first bad value is", () => {
+  test("an unknown zeros rule is refused, naming the two that exist", () => {
+    expect(() => cleanSeries([5, 6, 7], "Shop", 1, { zeros: "drop" as never })).toThrow(/zeros must be "keep" or "missing"; got "drop"/);
+  });
+  test("the header rule: a row of text names series; a row with a number, or all blank, does not (common practice of spreadsheet tables)", () => {
+    expect(isHeaderRow(["Harbour Street", "Old Quay"])).toBe(true);
+    expect(isHeaderRow(["Harbour Street", null])).toBe(true);
+    expect(isHeaderRow(["Shop", 5])).toBe(false);
+    expect(isHeaderRow([null, " "])).toBe(false);
+    expect(isHeaderRow([true, "Shop"])).toBe(false);
+  });
+  test("Box-Cox's refusal points at the first value ≤ 0, a zero as much as a negative", () => {
+    expect(() => requirePositiveSeries([3, 0, 5, -1, 4], 2, "Shop", "a forecast")).toThrow(/1 zero and 1 negative value \(first at position 2\)/);
+    expect(() => requirePositiveSeries([3, 4, 0, 5], 2, "Shop", "a forecast")).toThrow(/1 zero \(first at position 3\)/);
   });
 });

@@ -1,7 +1,7 @@
 // Edges of the totals that the mutation run (MUTATION.md §2) found unguarded. Expected values are
 // derived in the test from closed forms: the Box-Cox exact mean (lognormal mean at λ = 0), the
 // normal quantile, and the month's (μ, σ) recovered from its interval (METHODS §10).
-import { backtransformMeanExact, fitForecast, normalQuantile, parseDependence, poleProbability, publishedTotal, totalAcross } from "../../src/engine";
+import { alignSeries, backtransformMeanExact, fitForecast, normalQuantile, parseDependence, poleProbability, publishedTotal, totalAcross } from "../../src/engine";
 
 describe("totals of published forecasts", () => {
   test("λ ≥ 0: each month's mean is the exact mean of its recovered normal, not the Taylor value", () => {
@@ -64,5 +64,48 @@ describe("a total across series where one series' scale has a pole (Box-Cox λ =
     expect(share).toBeGreaterThanOrEqual(p12 - 4 * Math.sqrt((p12 * (1 - p12)) / paths));
     expect(share).toBeLessThanOrEqual(1);
     expect(t.simulatedMean).toBeNull();
+  });
+});
+
+describe("a total across series with no transform is normal with a closed form (seed-20 mutation sample)", () => {
+  // INVENTED: two cost centres' monthly costs, random-walk-like. Naive forecasts with no transform:
+  // step h of series s is y_s + σ_s·(e₁ + … + e_h), so the total over steps 1..H of both series is
+  // normal with mean H(y_A + y_B) and variance (σ_A² + σ_B² + 2ρσ_Aσ_B)·Σ_{h,k ≤ H} min(h, k), where
+  // Σ min(h, k) = H(H + 1)(2H + 1)/6 (sums of a random walk; Box & Jenkins 1970, ch. 5).
+  const a = Array.from({ length: 48 }, (_, i) => 500 + 20 * Math.sin(0.9 * i) + 3 * i);
+  const b = Array.from({ length: 48 }, (_, i) => 300 + 15 * Math.cos(1.3 * i) + 12 * Math.sin(0.9 * i));
+  const fa = fitForecast(a, { method: "naive", lambda: "none", label: "Stores" });
+  const fb = fitForecast(b, { method: "naive", lambda: "none", label: "Transport" });
+  const H = 6;
+  const paths = 20000;
+  const t = totalAcross([fa, fb], H, { level: 90, paths, seed: 11 });
+  const sa = fa.model?.sigma as number;
+  const sb = fb.model?.sigma as number;
+  const k = (H * (H + 1) * (2 * H + 1)) / 6;
+  const mean = H * (a[47] + b[47]);
+  const z = normalQuantile(0.95);
+  test("the mean is H·(last values), and the simulated mean agrees within 4 Monte Carlo errors", () => {
+    expect(t.mean as number).toBeCloseTo(mean, 6);
+    expect(Math.abs((t.simulatedMean as number) - mean)).toBeLessThan(4 * (t.monteCarloError as number));
+  });
+  test("the 90% interval is mean ± z₀.₉₅·sd with the estimated correlation; with independent innovations ρ = 0", () => {
+    const rho = t.correlation[0][1];
+    const sd = Math.sqrt((sa * sa + sb * sb + 2 * rho * sa * sb) * k);
+    const sd0 = Math.sqrt((sa * sa + sb * sb) * k);
+    // a quantile's Monte Carlo standard error at p = 0.05 is √(p(1−p)/N)/φ(z)·sd ≈ 0.015·sd here; allow 0.08·sd
+    expect(Math.abs(t.interval[0] - (mean - z * sd))).toBeLessThan(0.08 * sd);
+    expect(Math.abs((t.interval[1] as number) - (mean + z * sd))).toBeLessThan(0.08 * sd);
+    expect(Math.abs(t.independent.interval[0] - (mean - z * sd0))).toBeLessThan(0.08 * sd0);
+    expect(Math.abs(t.median - mean)).toBeLessThan(0.05 * sd);
+  });
+});
+
+describe("the note when series end at different periods agrees in number (common practice)", () => {
+  test("one series cut: 'it is cut there … its later values'; two: 'they are … their'", () => {
+    expect(alignSeries([[1, 2, 3], [1, 2, 3, null]], ["A", "B"]).note).toBeNull(); // a trailing blank is not a later value
+    const cut1 = alignSeries([[1, 2, 3], [1, 2, 3, 4]], ["A", "B"]);
+    expect(cut1.note).toBe("The series end at different periods: B has values after row 3, the latest period every series has; it is cut there so all forecasts start from the same period (its later values are not used).");
+    const cut2 = alignSeries([[1, 2, 3], [1, 2, 3, 4], [1, 2, 3, 4, 5]], ["A", "B", "C"]);
+    expect(cut2.note).toBe("The series end at different periods: B, C have values after row 3, the latest period every series has; they are cut there so all forecasts start from the same period (their later values are not used).");
   });
 });

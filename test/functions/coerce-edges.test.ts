@@ -1,8 +1,10 @@
 // Edges of the cell layer's argument reading that the mutation run (MUTATION.md §2) found unguarded.
 // Rule (common practice in spreadsheet functions): an argument that takes one value accepts one
 // cell, and a larger range is refused by name rather than read as its first cell.
-import { optionalNumber, readLevels } from "../../src/functions/coerce";
+import { optionalKeyword, optionalNumber, readLevels } from "../../src/functions/coerce";
+import { levelList } from "../../src/functions/audit-args";
 import * as FW from "../../src/functions/functions";
+import { isCellError, ShimError } from "../helpers/custom-functions-shim";
 
 describe("single-value arguments", () => {
   test("a 1×1 range is its cell; a 2×1 or 1×2 range is refused naming the argument", () => {
@@ -22,5 +24,38 @@ describe("FW.PINBALL skips rows where either value is blank (pinball loss, Koenk
     // y = 10: 0.1·10 = 1; y = 30: 0.9·10 = 9; the blank row is left out → (1 + 9)/2 = 5.
     expect(FW.PINBALL([[10], [""], [30]], [[20], [20], [20]], 0.9)).toBeCloseTo(5, 12);
     expect(FW.PINBALL([[10], [null], [30]], [[20], [""], [20]], 0.9)).toBeCloseTo(5, 12);
+  });
+});
+
+/** The error a cell function returns or throws (fails the test when it returns numbers). */
+function failure(f: () => unknown): ShimError {
+  try {
+    const v = f();
+    const first = Array.isArray(v) && Array.isArray(v[0]) ? (v[0] as unknown[]).find((c) => isCellError(c)) : undefined;
+    if (first) return first as ShimError;
+  } catch (e) {
+    return e as ShimError;
+  }
+  throw new Error("expected the call to fail");
+}
+
+describe("seed-20 mutation sample: what the cell layer says about blank and oversized arguments", () => {
+  const col = (xs: (number | string | null)[]): (number | string | null)[][] => xs.map((x) => [x]);
+  test("FW.TOTALFROMINTERVALS with three blank columns says they hold no numbers", () => {
+    expect(failure(() => FW.TOTALFROMINTERVALS(col([null, ""]), col([null, null]), col(["", null]), 80)).message)
+      .toBe("medians, lowers and uppers hold no numbers; select the published forecast's three columns.");
+  });
+  test("FW.TOTALFROMINTERVALS refuses a 2-cell range as λ or dependence, naming it, rather than reading its first cell", () => {
+    expect(failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0], [1]])).message).toMatch(/lambda must be a single cell/);
+    expect(failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0]], [["comonotone", "independent"]])).message).toMatch(/dependence must be a single cell/);
+    // a 1×1 range is its cell
+    expect(FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0]], [["comonotone"]])).toEqual(FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, 0, "comonotone"));
+  });
+  test("a blank level (Excel passes an omitted argument as null) is 'blank', not an unreadable value", () => {
+    for (const v of [null, undefined, ""]) expect(() => levelList(v)).toThrow(/level must be a percentage like 80, .*; it is blank\./);
+  });
+  test("keywords are matched with surrounding spaces trimmed and case ignored", () => {
+    expect(optionalKeyword(" Exact ", "mean", ["auto", "exact", "taylor"] as const, "auto")).toBe("exact");
+    expect(optionalKeyword("TAYLOR\t", "mean", ["auto", "exact", "taylor"] as const, "auto")).toBe("taylor");
   });
 });
