@@ -1,6 +1,6 @@
 // Edges of the model layer that the mutation run (MUTATION.md §2) found unguarded. Expected values
 // come from closed forms (the lognormal mean; the shift rule stated in the README) computed here.
-import { aiccOf, ARIMA_LIMITS, autoArima, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit } from "../../src/engine";
+import { aiccOf, ARIMA_LIMITS, autoArima, chooseLambdaAuto, createRandom, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit, profileModelLambda } from "../../src/engine";
 import { dataset } from "../helpers/reference";
 
 describe("the model description's mean rows (the lognormal closed forms)", () => {
@@ -85,5 +85,27 @@ describe("the stepwise ARIMA search ends at a local minimum of its own step set 
       expect(tried.get(key(v)) as number).toBeGreaterThanOrEqual(best - 1e-9);
     }
     expect(checked).toBeGreaterThanOrEqual(6);
+  });
+});
+
+describe("the λ rule when the smallest readable λ (−1) is the best (seed-20 mutation sample)", () => {
+  // INVENTED: a price index simulated to be exactly normal on the Box-Cox λ = −1 scale, w = 1 − 1/y:
+  // a slowly wandering level near w = 0.9 (y ≈ 10) observed with noise, so the spread of y grows
+  // with y² (Box & Cox 1964: the maximum-likelihood λ then sits near −1).
+  const r = createRandom(3);
+  let level = 0.9;
+  const y: number[] = [];
+  for (let i = 0; i < 120; i++) {
+    level += 0.004 * r.normal();
+    y.push(1 / (1 - (level + 0.012 * r.normal())));
+  }
+  test("λ = −1 is chosen and held against the profile's own maximum, searched below −1 (the bracket's open side)", () => {
+    const c = chooseLambdaAuto(y, { method: "ses" });
+    expect(c.lambda).toBe(-1);
+    expect(c.usedMaximum).toBe(false);
+    // the profile maximum of the chosen form lies within the likelihood-ratio cut of λ = −1
+    const p = profileModelLambda(y, "ses");
+    expect(p.lambda).toBeLessThan(-0.5);
+    expect(p.loglik - c.fit.loglik).toBeLessThanOrEqual(0.5 * 3.841458820694124); // χ²₁(0.95)/2, Box & Cox 1964
   });
 });

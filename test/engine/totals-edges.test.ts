@@ -109,3 +109,30 @@ describe("the note when series end at different periods agrees in number (common
     expect(cut2.note).toBe("The series end at different periods: B, C have values after row 3, the latest period every series has; they are cut there so all forecasts start from the same period (their later values are not used).");
   });
 });
+
+describe("a published total on the square-root scale (Box-Cox λ = ½; seed-20 mutation sample)", () => {
+  // At λ = ½ the inverse is y = (1 + w/2)², so a month's mean is exactly (1 + μ/2)² + σ²/4 (the
+  // mean of a squared normal), and the independent months' total has that sum as its mean.
+  const med = [100, 110, 121];
+  const lo = [80, 86, 92];
+  const hi = [123, 138, 155];
+  const t = publishedTotal(med, lo, hi, 90, { lambda: 0.5, dependence: "independent", paths: 40000, seed: 3 });
+  test("the simulated mean agrees with the sum of the exact monthly means within 4 Monte Carlo errors", () => {
+    const z = normalQuantile(0.95);
+    const g = (y: number): number => 2 * (Math.sqrt(y) - 1); // Box-Cox λ = ½
+    let exact = 0;
+    for (let i = 0; i < 3; i++) {
+      const mu = g(med[i]);
+      const s = (g(hi[i]) - g(lo[i])) / (2 * z);
+      exact += (1 + mu / 2) ** 2 + (s * s) / 4;
+    }
+    expect(t.mean as number).toBeCloseTo(exact, 8);
+    expect(Math.abs((t.simulatedMean as number) - exact)).toBeLessThan(4 * (t.monteCarloError as number));
+  });
+  test("one month's total is that month's interval (the total of one step is the step; Monte Carlo quantile error only)", () => {
+    const one = publishedTotal([100], [80], [123], 90, { lambda: 0.5, dependence: "independent", paths: 40000, seed: 4 });
+    expect(Math.abs(one.interval[0] - 80)).toBeLessThan(0.6);
+    expect(Math.abs((one.interval[1] as number) - 123)).toBeLessThan(0.9);
+    expect(Math.abs(one.median - 100)).toBeLessThan(0.5);
+  });
+});
