@@ -190,7 +190,7 @@ function renderFan(): void {
     $("fw-gap").textContent = view.gap;
     $("fw-notes").textContent = view.notes.join(" ");
     const from = Number($<HTMLInputElement>("fw-total-from").value) || 1;
-    $("fw-total").textContent = totalOverSentence(view.forecaster, Math.min(from, Math.max(1, c.horizon)), c.horizon, 95, state.data.nextLabel);
+    $("fw-total").textContent = totalOverSentence(view.forecaster, Math.min(from, Math.max(1, c.horizon)), c.horizon, 95, view.stepLabel);
     renderTable(view);
     updateSlider(view.lambdaRange);
     if (state.inExcel && state.data.address) {

@@ -143,6 +143,8 @@ export type FanView =
       /** Likelihood interval of λ for the slider (null when the series is not transformed or has none). */
       lambdaRange: [number, number] | null;
       forecaster: Forecaster;
+      /** The period of forecast step h, counted from this series' own last value (undefined without dates). */
+      stepLabel?: (h: number) => string;
     }
   | { ok: false; message: string };
 
@@ -195,8 +197,8 @@ export function fanView(data: PaneData, c: FanControls): FanView {
     });
     const shown = Math.min(history.length, Math.max(24, 3 * c.horizon));
     const hist = history.slice(-shown);
-    const next = data.nextLabel;
-    const lab = [...labels.slice(-shown), ...fan.rows.map((r) => (next ? next(r.h) : `+${r.h}`))];
+    const stepLabel = stepLabeller(data, cells);
+    const lab = [...labels.slice(-shown), ...fan.rows.map((r) => (stepLabel ? stepLabel(r.h) : `+${r.h}`))];
     const svg = fanChartSvg({ title: `${data.names[c.series]}: ${f.method}, λ ${f.lambda === null ? "none" : f.lambda.toFixed(2)}`, history: hist, labels: lab, fan, width: 300, height: 220 });
     const info = new Map(describeForecaster(f));
     const aicc = info.get("AICc");
@@ -217,11 +219,32 @@ export function fanView(data: PaneData, c: FanControls): FanView {
       notes: f.notes.slice(),
       lambdaRange: range,
       forecaster: f,
+      stepLabel,
     };
   } catch (e) {
     if (isEngineError(e)) return { ok: false, message: e.message };
     return { ok: false, message: `Fanwise could not draw this fan (${e instanceof Error ? e.message : String(e)}).` };
   }
+}
+
+/**
+ * The period of forecast step h of one series, counted from the series' own last value: a series
+ * that ends before the selection's last row (trailing blanks) starts its steps inside the selection,
+ * at the row labels there, then continues with the dates after the last row. Undefined when the
+ * rows are not dates. Common practice (a forecast starts after the last observation).
+ * @example stepLabeller(data, [5, 6, null])?.(1) // the label of the third row, not the month after it
+ */
+export function stepLabeller(data: PaneData, cells: readonly unknown[]): ((h: number) => string) | undefined {
+  const next = data.nextLabel;
+  if (!next) return undefined;
+  let last = cells.length - 1;
+  while (last >= 0 && typeof cells[last] !== "number") last--;
+  const rows = cells.length;
+  return (h: number): string => {
+    const i = last + h;
+    if (i < rows && data.rowLabels?.[i]) return data.rowLabels[i];
+    return next(i - (rows - 1));
+  };
 }
 
 /**

@@ -48,3 +48,22 @@ describe("Treat zeros as missing, in the pane", () => {
     expect(view.ok).toBe(true);
   });
 });
+
+describe("a series that ends before the selection's last row (trailing blanks)", () => {
+  // invented: two shops by month; Old Quay's last two months are not in yet
+  const months = ["2025-01", "2025-02", "2025-03", "2025-04", "2025-05", "2025-06", "2025-07", "2025-08", "2025-09", "2025-10", "2025-11", "2025-12"];
+  const harbour = [210, 215, 222, 230, 228, 236, 241, 247, 252, 250, 258, 263];
+  const quay: (number | null)[] = [140, 144, 150, 149, 155, 158, 162, 166, 171, 170, null, null];
+  const next = (h: number): string => { const m = 12 + h; return `${2025 + Math.floor((m - 1) / 12)}-${String(((m - 1) % 12) + 1).padStart(2, "0")}`; };
+  const d: PaneData = { source: "test", names: ["Harbour", "Old Quay"], columns: [harbour, quay], headerRows: 0, rowLabels: months, nextLabel: next };
+  test("its fan's steps are counted from its own last value: step 1 is 2025-11 (inside the selection), step 3 is 2026-01 (common practice)", () => {
+    const v = fanView(d, { series: 1, method: "drift", lambda: "0", horizon: 3, period: 1, levels: "80" });
+    if (!v.ok) throw new Error(v.message);
+    expect([1, 2, 3].map((h) => v.stepLabel?.(h))).toEqual(["2025-11", "2025-12", "2026-01"]);
+    expect(v.svg).toContain("2026-01"); // the chart labels its last step
+    expect(v.svg).not.toContain("2026-03");
+    const full = fanView(d, { series: 0, method: "drift", lambda: "0", horizon: 2, period: 1, levels: "80" });
+    if (!full.ok) throw new Error(full.message);
+    expect([1, 2].map((h) => full.stepLabel?.(h))).toEqual(["2026-01", "2026-02"]);
+  });
+});
