@@ -1,5 +1,5 @@
 // Edges of the audit and the backtest that the mutation run (MUTATION.md §2) found unguarded.
-import { auditLog, backtest, crpsBacktransformed, intervalScore } from "../../src/engine";
+import { auditLog, backtest, calibrationTable, crpsBacktransformed, intervalScore, overlapTests } from "../../src/engine";
 import { practicalMinimum } from "../../src/engine/audit/backtest";
 
 describe("a log's unreadable interval end is named by its column and level (common practice: say what to fix)", () => {
@@ -73,5 +73,21 @@ describe("the backtest's first fitting window (common practice: two full seasons
   test("first = 1 is refused with the rule (at least 2), not read as a window of one value", () => {
     const y = Array.from({ length: 30 }, (_, i) => 100 + i); // INVENTED
     expect(() => backtest(y, 1, { method: "naive", lambda: "none", first: 1 })).toThrow(/first must be a whole number of at least 2/);
+  });
+});
+
+describe("seed-21 mutation sample: calibration ties and the overlap note's ordinals", () => {
+  test("two quantiles that are equal (a forecast with a point mass, or rounding) are accepted; only falling ones are refused", () => {
+    const y = [10, 12, 11, 13, 9, 12]; // INVENTED
+    const q = (v: number): number[] => y.map(() => v);
+    const c = calibrationTable(y, [{ p: 0.1, cells: q(9.5) }, { p: 0.5, cells: q(11) }, { p: 0.9, cells: q(11) }]);
+    // share at or below 11: 10, 11, 9 → 3 of 6 for both p = 0.5 and p = 0.9
+    expect(c.rows.map((r) => r.hitRate)).toEqual([1 / 6, 0.5, 0.5]);
+    expect(() => calibrationTable(y, [{ p: 0.5, cells: q(11) }, { p: 0.9, cells: q(10.9) }])).toThrow(/quantile \(10\.9\) is below the 0\.5 quantile/);
+  });
+  test("the overlap note says 'every 11th/12th/13th origin' and 'every 2nd/3rd/21st' (English ordinals)", () => {
+    const strand = Array.from({ length: 60 }, (_, i) => (i % 7 === 0 ? 1 : 0)); // INVENTED hit sequence
+    const word = (h: number): string => (/every (\d+\w\w) origin/.exec(overlapTests([strand], 0.1, h).adjustment) as RegExpExecArray)[1];
+    expect([2, 3, 4, 11, 12, 13, 21, 22].map(word)).toEqual(["2nd", "3rd", "4th", "11th", "12th", "13th", "21st", "22nd"]);
   });
 });

@@ -3,6 +3,8 @@
 import { semidefiniteFactor, solveSymmetric } from "../../src/engine/_lib/cholesky";
 import { choleskyLower } from "../../src/engine/_lib/cholesky-factor";
 import { sortedQuantile } from "../../src/engine/_lib/sorted-quantile";
+import { fitLambda } from "../../src/engine";
+import { dataset } from "../helpers/reference";
 
 // A = [[4,2,0],[2,5,1],[0,1,3]] is symmetric positive definite (leading minors 4, 16, 44).
 const A = [4, 2, 0, 2, 5, 1, 0, 1, 3];
@@ -56,5 +58,20 @@ describe("the factor of a singular covariance (draws from N(0, P) with P only se
       const C = semidefiniteFactor(new Float64Array([4, 2, 2, 1].map((v) => v * s)), 2);
       [2, 0, 1, 0].forEach((v, i) => expect(C[i] / Math.sqrt(s)).toBeCloseTo(v, 12));
     }
+  });
+});
+
+describe("seed-21 mutation sample: the singular solve at a large scale, a bounded scan", () => {
+  test("a singular system with entries of 1e8 still gets a ridge it can use: A x = b holds (b in A's range)", () => {
+    // [[1, 1], [1, 1]]·1e8 is singular; b = (1, 1)·1e8 is in its range, so any solution has x₁ + x₂ = 1.
+    const A = new Float64Array([1e8, 1e8, 1e8, 1e8]);
+    const x = solveSymmetric(A, new Float64Array([1e8, 1e8]), 2);
+    expect(Math.abs(x[0] + x[1] - 1)).toBeLessThan(1e-6);
+  });
+  test("Guerrero's λ held to a lower bound the data would pass stays on it (AirPassengers, bounds ½…2)", () => {
+    const g = fitLambda(dataset("AirPassengers"), { method: "guerrero", period: 12, lower: 0.5, upper: 2 });
+    expect(g.lambda).toBeGreaterThanOrEqual(0.5);
+    expect(g.lambda).toBeLessThan(0.5 + 1e-6);
+    expect(g.onBound).toBe("lower");
   });
 });

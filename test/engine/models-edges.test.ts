@@ -1,6 +1,6 @@
 // Edges of the model layer that the mutation run (MUTATION.md §2) found unguarded. Expected values
 // come from closed forms (the lognormal mean; the shift rule stated in the README) computed here.
-import { aiccOf, ARIMA_LIMITS, autoArima, chooseLambdaAuto, createRandom, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit, profileModelLambda } from "../../src/engine";
+import { aiccOf, ARIMA_LIMITS, arimaTitle, autoArima, chooseLambdaAuto, createRandom, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit, profileModelLambda, totalForecast } from "../../src/engine";
 import { dataset } from "../helpers/reference";
 
 describe("the model description's mean rows (the lognormal closed forms)", () => {
@@ -107,5 +107,30 @@ describe("the λ rule when the smallest readable λ (−1) is the best (seed-20 
     const p = profileModelLambda(y, "ses");
     expect(p.lambda).toBeLessThan(-0.5);
     expect(p.loglik - c.fit.loglik).toBeLessThanOrEqual(0.5 * 3.841458820694124); // χ²₁(0.95)/2, Box & Cox 1964
+  });
+});
+
+describe("seed-21 mutation sample: ARIMA titles in the usual (p,d,q)(P,D,Q)[m] notation (Box & Jenkins 1970)", () => {
+  test("no seasonal part is written when P, D and Q are all 0; the constant is named by the differencing", () => {
+    expect(arimaTitle({ p: 1, d: 1, q: 0, P: 0, D: 0, Q: 0, m: 1, constant: true })).toBe("ARIMA(1,1,0) with drift");
+    expect(arimaTitle({ p: 2, d: 0, q: 1, P: 0, D: 0, Q: 0, m: 12, constant: true })).toBe("ARIMA(2,0,1) with mean");
+    expect(arimaTitle({ p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, m: 12, constant: false })).toBe("ARIMA(0,1,1)(0,1,1)[12]");
+  });
+});
+
+describe("seed-21 mutation sample: λ's range, Guerrero's window, the total's mean label", () => {
+  // INVENTED monthly revenue of a shop
+  const y = Array.from({ length: 30 }, (_, i) => 500 * Math.exp(0.01 * i + 0.06 * Math.sin(1.1 * i)));
+  test("λ outside −5…5 is refused with the range (Box-Cox λ beyond it is never useful: common practice)", () => {
+    expect(() => fitForecast(y, { method: "naive", lambda: 6 })).toThrow(/lambda must be between -5 and 5/);
+    expect(() => fitForecast(y, { method: "naive", lambda: -5.5 })).toThrow(/lambda must be between -5 and 5/);
+  });
+  test("Guerrero's λ without seasons uses windows of 2 (Guerrero 1993 needs at least two values per window): 3 values are too few", () => {
+    expect(() => fitForecast([100, 110, 120], { method: "naive", lambda: "guerrero" })).toThrow(/two windows of 2 are needed/);
+  });
+  test("a total whose step means are all exact says 'exact'; all Taylor says 'taylor'", () => {
+    const f = fitForecast(y, { method: "naive", lambda: 0 });
+    expect(totalForecast(f, 6, { paths: 2000 }).meanUsed).toBe("exact");
+    expect(totalForecast(f, 6, { paths: 2000, mean: "taylor" }).meanUsed).toBe("taylor");
   });
 });

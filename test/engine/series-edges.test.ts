@@ -51,3 +51,20 @@ describe("seed-20 mutation sample: option checks, the header rule, where the fir
     expect(() => requirePositiveSeries([3, 4, 0, 5], 2, "Shop", "a forecast")).toThrow(/1 zero \(first at position 3\)/);
   });
 });
+
+describe("seed-21 mutation sample: the screen's figures and its 20% rule", () => {
+  test("the maximum is the largest value, wherever it is", () => {
+    const s = screenSeries([3, 9, 4, 2], { label: "Shop" });
+    expect([s.min, s.max]).toEqual([2, 9]);
+  });
+  test("one value: 'too short to forecast: it has 1 value' — singular", () => {
+    expect(screenSeries([5], { label: "Shop" }).message).toMatch(/Shop is too short: 1 value;/);
+  });
+  test("at most 20% of the periods may be missing (METHODS §8): 2 blanks in 10 periods pass, 3 do not", () => {
+    // INVENTED monthly sales
+    const two = [120, null, 131, 128, null, 140, 152, 149, 160, 171];
+    const three = [120, null, 131, null, null, 140, 152, 149, 160, 171];
+    expect(screenSeries(two, { label: "Shop" }).fix).not.toBe("fill-gaps");
+    expect(screenSeries(three, { label: "Shop" }).fix).toBe("fill-gaps");
+  });
+});

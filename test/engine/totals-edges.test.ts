@@ -136,3 +136,46 @@ describe("a published total on the square-root scale (Box-Cox λ = ½; seed-20 m
     expect(Math.abs(one.median - 100)).toBeLessThan(0.5);
   });
 });
+
+describe("seed-21 mutation sample: published totals' checks and notes", () => {
+  test("a dependence that is neither a keyword nor a number is refused as such", () => {
+    expect(() => parseDependence(true)).toThrow(/dependence must be a keyword or a number/);
+    expect(parseDependence(0.3)).toBe(0.3);
+  });
+  test("a seed that is not whole is refused, naming it", () => {
+    expect(() => publishedTotal([100], [80], [125], 80, { seed: 1.5 })).toThrow(/seed must be a whole number; got 1\.5\./);
+  });
+  test("only the months whose interval is lopsided on the λ scale are named (10% rule, METHODS §10)", () => {
+    // Month 1: 80–125 around 100 is symmetric in logs (ln 1.25 = −ln 0.8). Month 2: 80–120 is
+    // symmetric on the original scale, so in logs its upper arm ln 1.2 = 0.182 is 18% shorter than ln 1.25.
+    const t = publishedTotal([100, 100], [80, 80], [125, 120], 80, { lambda: 0, dependence: "independent" });
+    expect(t.months.map((m) => m.consistent)).toEqual([true, false]);
+    expect(t.notes.filter((n) => /not symmetric/.test(n))).toEqual([expect.stringMatching(/^Month 2 is not symmetric around the median on the λ = 0 scale/)]);
+  });
+  test("on the log scale no simulated total is unbounded, and no note says so", () => {
+    const t = publishedTotal([100, 105, 110], [80, 83, 86], [125, 133, 141], 80, { lambda: 0, dependence: "independent" });
+    expect(t.notes.join(" ")).not.toMatch(/unbounded/);
+  });
+  test("published widths that shrink with the horizon: the implied fit takes α = 0 and says why", () => {
+    // log-scale half-widths ln(1.25) > ln(1.2) > ln(1.15): no local level grows like that
+    const t = publishedTotal([100, 100, 100], [80, 100 / 1.2, 100 / 1.15], [125, 120, 115], 80, { lambda: 0 });
+    expect(t.fit.alpha).toBe(0);
+    expect(t.fit.note).toMatch(/The widths do not grow with the horizon, so the fit takes α = 0 \(independent months\)\./);
+  });
+});
+
+describe("seed-21 mutation sample: a total across Yeo-Johnson series", () => {
+  // INVENTED: two product lines' monthly margins; on the Yeo-Johnson λ = ½ scale the simulation must
+  // back-transform each path with the Yeo-Johnson inverse (Yeo & Johnson 2000), so its mean agrees
+  // with the sum of the exact step means (quadrature) within Monte Carlo error.
+  const a = Array.from({ length: 48 }, (_, i) => 40 + 0.3 * i + 6 * Math.sin(0.8 * i));
+  const b = Array.from({ length: 48 }, (_, i) => 25 + 4 * Math.cos(1.1 * i) + 0.1 * i);
+  const fa = fitForecast(a, { method: "naive", transform: "yeo-johnson", lambda: 0.5, label: "Line A" });
+  const fb = fitForecast(b, { method: "naive", transform: "yeo-johnson", lambda: 0.5, label: "Line B" });
+  test("simulated mean = sum of exact means within 4 Monte Carlo errors; the interval brackets it", () => {
+    const t = totalAcross([fa, fb], 6, { level: 90, paths: 20000, seed: 8 });
+    expect(Math.abs((t.simulatedMean as number) - (t.mean as number))).toBeLessThan(4 * (t.monteCarloError as number));
+    expect(t.interval[0]).toBeLessThan(t.mean as number);
+    expect(t.interval[1] as number).toBeGreaterThan(t.mean as number);
+  });
+});

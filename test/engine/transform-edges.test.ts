@@ -3,8 +3,9 @@
 // (Box & Cox 1964; Yeo & Johnson 2000), central finite differences for its second derivative, and
 // standard normal table values.
 import {
-  describeTransform, fitLambda, parseShift, inverseSecondDerivative, makeTransform, normalCdf, poleProbability, transformInverse,
+  createRandom, describeTransform, fitLambda, parseShift, inverseSecondDerivative, makeTransform, normalCdf, poleProbability, transformInverse, yeoJohnsonInverse,
 } from "../../src/engine";
+import { dataset } from "../helpers/reference";
 import type { TransformSpec } from "../../src/engine";
 import { checkLambdaBounds } from "../../src/engine/transform/bounds";
 
@@ -89,5 +90,32 @@ describe("inverse statuses, names and argument messages", () => {
     const y = Array.from({ length: 48 }, (_, i) => 100 + i + 10 * Math.sin(i));
     expect(() => fitLambda(y, { period: 0 })).toThrow(/period must be a whole number of at least 1/);
     expect(() => fitLambda(y, { period: 2.5 })).toThrow(/period must be a whole number of at least 1/);
+  });
+});
+
+describe("seed-21 mutation sample: the inverse with no transform, Yeo-Johnson's negative side, Guerrero's note", () => {
+  test("no transform: the inverse is the value itself; ±∞ are the poles", () => {
+    expect(transformInverse(makeTransform("none"), 7.5)).toEqual({ value: 7.5, status: "ok" });
+    expect(transformInverse(makeTransform("none"), -2)).toEqual({ value: -2, status: "ok" });
+    expect(transformInverse(makeTransform("none"), Number.POSITIVE_INFINITY).status).toBe("pole");
+  });
+  test("Yeo-Johnson's inverse on the negative side returns scipy 1.10.1's inputs (stats.yeojohnson(y, lmbda))", () => {
+    // scipy: yeojohnson(−3, 0.5) = −4.666666666666665; (−0.2, 3) = −0.16666666666666669; (−5, −1) = −71.66666666666669
+    const cases: [number, number, number][] = [[-4.666666666666665, 0.5, -3], [-0.16666666666666669, 3, -0.2], [-71.66666666666669, -1, -5]];
+    for (const [w, l, y] of cases) expect(Math.abs(yeoJohnsonInverse(w, l) - y)).toBeLessThan(1e-12 * Math.abs(y));
+  });
+  test("Guerrero's λ is flagged only when the i.i.d. likelihood interval leaves it out", () => {
+    // AirPassengers (R datasets): Guerrero's λ −0.2947 is below the i.i.d. interval −0.238 … 0.534
+    const air = fitLambda(dataset("AirPassengers"), { method: "guerrero", period: 12 });
+    expect(air.lambda).toBeCloseTo(-0.29472, 4);
+    expect(air.note).toMatch(/disagrees: its 95% interval, -0\.238 to 0\.534, leaves Guerrero's λ out/);
+    // INVENTED: a seasonal log-normal series; Guerrero's λ (−0.09) sits inside the interval (−0.97 … 0.97)
+    const r = createRandom(1);
+    const y = Array.from({ length: 96 }, (_, i) => Math.exp(Math.log(200) + 0.005 * i + 0.1 * r.normal() + 0.15 * Math.sin((2 * Math.PI * i) / 12)));
+    const g = fitLambda(y, { method: "guerrero", period: 12 });
+    const m = fitLambda(y, { method: "mle" });
+    expect(g.lambda).toBeGreaterThan(m.interval[0] as number);
+    expect(g.lambda).toBeLessThan(m.interval[1] as number);
+    expect(g.note).not.toMatch(/disagrees/);
   });
 });

@@ -1,7 +1,7 @@
 // Edges of the cell layer's argument reading that the mutation run (MUTATION.md §2) found unguarded.
 // Rule (common practice in spreadsheet functions): an argument that takes one value accepts one
 // cell, and a larger range is refused by name rather than read as its first cell.
-import { optionalKeyword, optionalNumber, readLevels } from "../../src/functions/coerce";
+import { optionalBoolean, optionalKeyword, optionalNumber, readLevels } from "../../src/functions/coerce";
 import { levelList } from "../../src/functions/audit-args";
 import * as FW from "../../src/functions/functions";
 import { isCellError, ShimError } from "../helpers/custom-functions-shim";
@@ -57,5 +57,25 @@ describe("seed-20 mutation sample: what the cell layer says about blank and over
   test("keywords are matched with surrounding spaces trimmed and case ignored", () => {
     expect(optionalKeyword(" Exact ", "mean", ["auto", "exact", "taylor"] as const, "auto")).toBe("exact");
     expect(optionalKeyword("TAYLOR\t", "mean", ["auto", "exact", "taylor"] as const, "auto")).toBe("taylor");
+  });
+});
+
+describe("seed-21 mutation sample: booleans, blank verdicts, long text in messages", () => {
+  test("a flag given as 1 or 0 (how some sheets store TRUE and FALSE) is read as TRUE or FALSE; 2 is refused", () => {
+    expect(optionalBoolean(1, "header", false)).toBe(true);
+    expect(optionalBoolean(0, "header", true)).toBe(false);
+    expect(() => optionalBoolean(2, "header", true)).toThrow(/header must be TRUE or FALSE/);
+  });
+  test("FW.BACKTEST leaves every statistic of a step no origin reached empty", async () => {
+    // INVENTED series (a shop's monthly sales with a gentle trend); month 25 missing, as in test/engine/audit-edges.test.ts
+    const y: Array<number | null> = Array.from({ length: 30 }, (_, i) => 200 + 2 * i + 5 * Math.sin(i));
+    y[24] = null;
+    const out = (await FW.BACKTEST(y.map((v) => [v]), 5, "naive", "none", 80, 1, 25)) as unknown[][];
+    // step 5: no origin, so coverage, score, mean errors, Kupiec p and verdict are all empty cells
+    expect(out[4]).toEqual([5, 0, "", "", "", "", "", ""]);
+  });
+  test("a text cell where a number belongs is quoted in the message, cut to 20 characters", () => {
+    const v = FW.BTMEAN([["a very long piece of text in a cell"]], [[0.5]], 0, "exact", null) as unknown[][];
+    expect((v[0][0] as ShimError).message).toBe('mu is not a number here ("a very long piece o).');
   });
 });
