@@ -34,7 +34,7 @@ const PLAN = {
   "src/engine/totals": ["totals-published", "totals-edges", "totals-across", "totals-window", "smearing"].map((n) => `test/engine/${n}.test.ts`),
   "src/engine/series": [...["screen", "series-edges", "missing", "bad-input"].map((n) => `test/engine/${n}.test.ts`), "test/functions/header-rule.test.ts"],
   "src/engine/_lib": ["lib", "lib-edges", "distribution", "backtransform", "simulation", "totals-published", "ets"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/models/arima": ["arima", "arima-gaps", "models-edges"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/models/arima": ["arima", "arima-gaps", "arima-se", "models-edges"].map((n) => `test/engine/${n}.test.ts`),
   "src/engine/models": ["ets", "models-edges", "forecast", "simulation", "fit-quality", "missing", "transform-forecast", "lambda-model", "screen"].map((n) => `test/engine/${n}.test.ts`),
   "src/functions": ["functions", "forecast-functions", "audit-functions", "totals-functions", "arima-functions", "bad-input",
     "error-messages", "forecast-cache-keys", "header-rule", "missing-cells", "cancel", "coerce-edges"].map((n) => `test/functions/${n}.test.ts`),

@@ -1,5 +1,5 @@
 // Edges of the audit and the backtest that the mutation run (MUTATION.md §2) found unguarded.
-import { auditLog, backtest, calibrationTable, crpsBacktransformed, intervalScore, overlapTests } from "../../src/engine";
+import { auditLog, backtest, calibrationTable, chiSquareSf, crpsBacktransformed, intervalScore, overlapTests, verdictOf } from "../../src/engine";
 import { practicalMinimum } from "../../src/engine/audit/backtest";
 
 describe("a log's unreadable interval end is named by its column and level (common practice: say what to fix)", () => {
@@ -89,5 +89,23 @@ describe("seed-21 mutation sample: calibration ties and the overlap note's ordin
     const strand = Array.from({ length: 60 }, (_, i) => (i % 7 === 0 ? 1 : 0)); // INVENTED hit sequence
     const word = (h: number): string => (/every (\d+\w\w) origin/.exec(overlapTests([strand], 0.1, h).adjustment) as RegExpExecArray)[1];
     expect([2, 3, 4, 11, 12, 13, 21, 22].map(word)).toEqual(["2nd", "3rd", "4th", "11th", "12th", "13th", "21st", "22nd"]);
+  });
+});
+
+describe("seed-22 mutation sample: an input error's code, the first window's rule, the verdict's wording", () => {
+  test("overlapping tests at step 0 are refused as an input error (a cell shows #VALUE!, not #NUM!)", () => {
+    expect(() => overlapTests([[0, 1, 0]], 0.1, 0)).toThrow(expect.objectContaining({ code: "input" }));
+  });
+  test("first = 2 is a valid window length, refused only because naive needs 4 values here", () => {
+    const y = Array.from({ length: 30 }, (_, i) => 100 + i); // INVENTED
+    expect(() => backtest(y, 1, { method: "naive", lambda: "none", first: 2 })).toThrow(/first = 2 is too short for naive: it needs at least 4 values/);
+  });
+  test("conditional coverage rejects while neither part does, the clustering part larger: the verdict says so (Christoffersen 1998: LR_cc = LR_uc + LR_ind)", () => {
+    const uc = { lr: 3.0, p: chiSquareSf(3.0, 1), df: 1 as const, note: "" }; // p = 0.083
+    const ind = { lr: 3.5, p: chiSquareSf(3.5, 1), df: 1 as const, note: "" }; // p = 0.061
+    const cc = { lr: 6.5, p: chiSquareSf(6.5, 2), df: 2 as const, note: "" }; // p = e^{−3.25} = 0.039
+    const v = verdictOf({ n: 120, misses: 10, coverage: 110 / 120, nominal: 0.95, kupiec: uc, independence: ind, conditional: cc, zone: "yellow" });
+    expect(v.code).toBe("misses-cluster");
+    expect(v.text).toMatch(/Neither test alone rejects, but together they do, mostly through the clustering of misses\./);
   });
 });

@@ -3,7 +3,7 @@
 // branch notes. Each expected value is derived in the test from a published closed form or a
 // standard normal table value (named beside it).
 import {
-  backtransformMean, backtransformMeanExact, backtransformMeanTaylor, backtransformQuantile, chiSquareSf, EngineError,
+  backtransformMean, backtransformMeanExact, backtransformMeanTaylor, backtransformQuantile, chiSquareQuantile, chiSquareSf, EngineError,
   forecastMean, makeTransform, meanFromInterval, parseMeanMethod,
 } from "../../src/engine";
 
@@ -109,5 +109,14 @@ describe("an exact mean too large for a double is said in the result, not thrown
     }
     // one step inside: e^{709} is a double, and the exact mean is exactly it (μ = 708.5, σ = 1)
     expect(forecastMean(makeTransform("box-cox", 0), 708.5, 1, "exact").value).toBe(Math.exp(709));
+  });
+});
+
+describe("seed-22 mutation sample: the chi-square quantile's probability", () => {
+  test("q must be strictly between 0 and 1: 0, 1, −0.5 and 1.5 are refused with the rule (common practice)", () => {
+    for (const q of [0, 1, -0.5, 1.5]) for (const df of [1, 2] as const) expect(() => chiSquareQuantile(q, df)).toThrow(/A probability must be strictly between 0 and 1; got/);
+    // and inside, the 95% points of χ²₁ and χ²₂ (3.841458820694124, 5.991464547107979: any χ² table)
+    expect(chiSquareQuantile(0.95, 1)).toBeCloseTo(3.841458820694124, 12);
+    expect(chiSquareQuantile(0.95, 2)).toBeCloseTo(5.991464547107979, 12);
   });
 });

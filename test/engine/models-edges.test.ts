@@ -1,6 +1,6 @@
 // Edges of the model layer that the mutation run (MUTATION.md §2) found unguarded. Expected values
 // come from closed forms (the lognormal mean; the shift rule stated in the README) computed here.
-import { aiccOf, ARIMA_LIMITS, arimaTitle, autoArima, chooseLambdaAuto, createRandom, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit, profileModelLambda, totalForecast } from "../../src/engine";
+import { aiccOf, fitAuto, ARIMA_LIMITS, arimaTitle, autoArima, chooseLambdaAuto, createRandom, describeForecaster, fitForecast, fitSmoothing, makeTransform, originalScaleFit, profileModelLambda, totalForecast } from "../../src/engine";
 import { dataset } from "../helpers/reference";
 
 describe("the model description's mean rows (the lognormal closed forms)", () => {
@@ -132,5 +132,49 @@ describe("seed-21 mutation sample: λ's range, Guerrero's window, the total's me
     const f = fitForecast(y, { method: "naive", lambda: 0 });
     expect(totalForecast(f, 6, { paths: 2000 }).meanUsed).toBe("exact");
     expect(totalForecast(f, 6, { paths: 2000, mean: "taylor" }).meanUsed).toBe("taylor");
+  });
+});
+
+describe("seed-21 mutation sample: when the likelihood rejects every readable λ, the note says whether the maximum is at the search's end", () => {
+  // INVENTED: a series simulated to be normal on a Box-Cox scale beyond the readable values
+  // (w = a wandering level near 2, y = (1 + λw)^{1/λ}); the likelihood-ratio test (Box & Cox 1964)
+  // rejects λ = 1 and the rule uses the form's own maximum, searched between ½ and 2.
+  const sim = (lam: number, seed: number): number[] => {
+    const r = createRandom(seed);
+    let level = 2;
+    return Array.from({ length: 300 }, () => {
+      level = Math.abs(level + 0.25 * r.normal());
+      return Math.pow(1 + lam * Math.abs(level + 0.3 * r.normal()), 1 / lam);
+    });
+  };
+  test("true λ 1.8: the maximum (about 1.3) is inside the search, so no 'end of the search' note", () => {
+    const c = chooseLambdaAuto(sim(1.8, 1), { method: "ses" });
+    expect(c.usedMaximum).toBe(true);
+    expect(c.lambda).toBeGreaterThan(1.05);
+    expect(c.lambda).toBeLessThan(1.95);
+    expect(c.note).not.toMatch(/end of the search/);
+  });
+  test("true λ 3: the maximum sits on the search's upper end (2), and the note says to search wider", () => {
+    const c = chooseLambdaAuto(sim(3, 1), { method: "ses" });
+    expect(c.usedMaximum).toBe(true);
+    expect(c.lambda).toBeCloseTo(2, 2);
+    expect(c.note).toMatch(/It lies at the end of the search \(0\.5 to 2\); give λ = "model" to search wider\./);
+  });
+});
+
+describe("seed-22 mutation sample: which forms and lengths apply", () => {
+  // INVENTED monthly revenue of a shop, 10 months
+  const y10 = [500, 512, 498, 530, 541, 529, 556, 560, 571, 566];
+  test("without seasons (period 1) the automatic choice tries only the non-seasonal forms (a season of 1 is none: common practice)", () => {
+    const a = fitAuto(y10.map(Math.log), 1);
+    expect(a.candidates.map((c) => c.method).sort()).toEqual(["damped", "holt", "ses"]);
+  });
+  test("naive and drift need 2 and 3 values whatever the period; seasonal naive needs two seasons", () => {
+    expect(fitForecast(y10, { method: "naive", lambda: 0, period: 12 }).method).toBe("naive");
+    expect(fitForecast(y10, { method: "drift", lambda: 0, period: 12 }).method).toBe("drift");
+    expect(() => fitForecast(y10, { method: "seasonal-naive", lambda: 0, period: 12 })).toThrow(/24/);
+  });
+  test("λ outside −5…5 is an input error (#VALUE! in a cell)", () => {
+    expect(() => fitForecast(y10, { method: "naive", lambda: 7 })).toThrow(expect.objectContaining({ code: "input" }));
   });
 });

@@ -68,3 +68,12 @@ describe("seed-21 mutation sample: the screen's figures and its 20% rule", () =>
     expect(screenSeries(three, { label: "Shop" }).fix).toBe("fill-gaps");
   });
 });
+
+describe("seed-22 mutation sample", () => {
+  test("an omitted cell (undefined, as some hosts pass it) in a header row of text is blank, not a number", () => {
+    expect(isHeaderRow(["Harbour Street", undefined])).toBe(true);
+  });
+  test("a value that is not a finite number is an input error (#VALUE! in a cell)", () => {
+    expect(() => requirePositiveSeries([3, Number.NaN, 5], 2, "Shop", "a forecast")).toThrow(expect.objectContaining({ code: "input" }));
+  });
+});

@@ -179,3 +179,39 @@ describe("seed-21 mutation sample: a total across Yeo-Johnson series", () => {
     expect(t.interval[1] as number).toBeGreaterThan(t.mean as number);
   });
 });
+
+describe("seed-22 mutation sample: a total across series with a constant one, and Taylor means asked for", () => {
+  // INVENTED: a shop's monthly sales and its fixed rent (a constant series: λ = 1, σ = 0).
+  const a = Array.from({ length: 40 }, (_, i) => 100 * Math.exp(0.01 * i + 0.05 * Math.sin(i)));
+  const rent = Array.from({ length: 40 }, () => 1000);
+  const fa = fitForecast(a, { method: "naive", lambda: 0, label: "Sales" });
+  const fr = fitForecast(rent, { method: "naive", label: "Rent" });
+  test("the rent adds exactly 6 × 1,000 to the mean, and the interval stays finite around it", () => {
+    const alone = totalAcross([fa, fa], 6, { level: 90, paths: 4000, seed: 2 });
+    const t = totalAcross([fa, fr], 6, { level: 90, paths: 4000, seed: 2 });
+    expect(t.mean as number).toBeCloseTo((alone.mean as number) / 2 + 6000, 6);
+    expect(Number.isFinite(t.interval[0]) && Number.isFinite(t.interval[1] as number)).toBe(true);
+    expect(t.interval[0]).toBeGreaterThan(6000);
+    expect(t.interval[0]).toBeLessThan(t.mean as number);
+    expect(t.interval[1] as number).toBeGreaterThan(t.mean as number);
+  });
+  test("with Taylor means asked for, no note claims that no exact mean exists at λ = 0", () => {
+    const t = totalAcross([fa, fa], 6, { level: 90, paths: 1000, seed: 2, mean: "taylor" });
+    expect(t.notes.join(" ")).not.toMatch(/no exact mean exists/);
+  });
+});
+
+describe("seed-22 mutation sample: Taylor means asked for are used", () => {
+  test("at λ = 0 the total's Taylor mean Σ e^μ(1 + σ²/2) is below its exact mean Σ e^{μ+σ²/2} (e^x > 1 + x), and equals the sum of the steps' Taylor means", () => {
+    const a = Array.from({ length: 40 }, (_, i) => 100 * Math.exp(0.01 * i + 0.05 * Math.sin(i))); // INVENTED
+    const fa = fitForecast(a, { method: "naive", lambda: 0, label: "Sales" });
+    const ex = totalAcross([fa, fa], 6, { paths: 1000, seed: 2, mean: "exact" });
+    const ta = totalAcross([fa, fa], 6, { paths: 1000, seed: 2, mean: "taylor" });
+    expect(ta.mean as number).toBeLessThan(ex.mean as number);
+    const s2 = (fa.model?.sigma as number) ** 2;
+    const last = a[39];
+    let taylor = 0;
+    for (let h = 1; h <= 6; h++) taylor += last * (1 + (h * s2) / 2); // naive on logs: μ_h = ln y_T, σ_h² = hσ²
+    expect(ta.mean as number).toBeCloseTo(2 * taylor, 6);
+  });
+});

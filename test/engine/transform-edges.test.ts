@@ -95,9 +95,9 @@ describe("inverse statuses, names and argument messages", () => {
 
 describe("seed-21 mutation sample: the inverse with no transform, Yeo-Johnson's negative side, Guerrero's note", () => {
   test("no transform: the inverse is the value itself; ±∞ are the poles", () => {
-    expect(transformInverse(makeTransform("none"), 7.5)).toEqual({ value: 7.5, status: "ok" });
-    expect(transformInverse(makeTransform("none"), -2)).toEqual({ value: -2, status: "ok" });
-    expect(transformInverse(makeTransform("none"), Number.POSITIVE_INFINITY).status).toBe("pole");
+    expect(transformInverse(makeTransform("none", null), 7.5)).toEqual({ value: 7.5, status: "ok" });
+    expect(transformInverse(makeTransform("none", null), -2)).toEqual({ value: -2, status: "ok" });
+    expect(transformInverse(makeTransform("none", null), Number.POSITIVE_INFINITY).status).toBe("pole");
   });
   test("Yeo-Johnson's inverse on the negative side returns scipy 1.10.1's inputs (stats.yeojohnson(y, lmbda))", () => {
     // scipy: yeojohnson(−3, 0.5) = −4.666666666666665; (−0.2, 3) = −0.16666666666666669; (−5, −1) = −71.66666666666669

@@ -1,7 +1,7 @@
 // Edges of the cell layer's argument reading that the mutation run (MUTATION.md §2) found unguarded.
 // Rule (common practice in spreadsheet functions): an argument that takes one value accepts one
 // cell, and a larger range is refused by name rather than read as its first cell.
-import { optionalBoolean, optionalKeyword, optionalNumber, readLevels } from "../../src/functions/coerce";
+import { describeValue, optionalBoolean, optionalKeyword, optionalNumber, readLevels } from "../../src/functions/coerce";
 import { levelList } from "../../src/functions/audit-args";
 import * as FW from "../../src/functions/functions";
 import { isCellError, ShimError } from "../helpers/custom-functions-shim";
@@ -75,7 +75,18 @@ describe("seed-21 mutation sample: booleans, blank verdicts, long text in messag
     expect(out[4]).toEqual([5, 0, "", "", "", "", "", ""]);
   });
   test("a text cell where a number belongs is quoted in the message, cut to 20 characters", () => {
-    const v = FW.BTMEAN([["a very long piece of text in a cell"]], [[0.5]], 0, "exact", null) as unknown[][];
+    const v = FW.BTMEAN([["a very long piece of text in a cell"]], [[0.5]], 0, "exact") as unknown[][];
     expect((v[0][0] as ShimError).message).toBe('mu is not a number here ("a very long piece o).');
+  });
+});
+
+describe("seed-22 mutation sample: how a wrong argument is described", () => {
+  test("a number where a keyword belongs is named in the message (no crash)", () => {
+    expect(() => optionalKeyword(5, "mean", ["auto", "exact", "taylor"] as const, "auto")).toThrow('mean must be one of "auto", "exact", "taylor"; got 5.');
+  });
+  test("a range is described as a range, a boolean as TRUE/FALSE (as Excel shows them)", () => {
+    expect(describeValue([[1], [2]])).toBe("a range of 2×1 cells");
+    expect(describeValue(true)).toBe("TRUE");
+    expect(describeValue(false)).toBe("FALSE");
   });
 });
