@@ -256,10 +256,31 @@ let turns: Promise<void> = Promise.resolve();
 function yieldToHost(): Promise<void> {
   const mine = turns.then(() => {
     if (Date.now() - lastYield < 30) return undefined;
-    return new Promise<void>((resolve) => setTimeout(() => { lastYield = Date.now(); resolve(); }, 0));
+    return nextTask().then(() => { lastYield = Date.now(); });
   });
   turns = mine;
   return mine;
+}
+
+let channel: MessageChannel | null = null;
+const waiting: (() => void)[] = [];
+/**
+ * Resolves in a new task of the event loop, so the host can paint and take input first. A message
+ * on a MessageChannel, not a timer: browsers throttle timers in hidden pages (to one a second in
+ * Chromium), and a runtime without a visible page must not be slowed that way. setTimeout where
+ * there is no page (Node, in the tests, drains a port's messages before its timers).
+ */
+function nextTask(): Promise<void> {
+  // Node (the tests) drains a port's messages without giving its timers a turn: timers there.
+  if (typeof MessageChannel === "undefined" || typeof document === "undefined") return new Promise((resolve) => setTimeout(resolve, 0));
+  if (channel === null) {
+    channel = new MessageChannel();
+    channel.port1.onmessage = () => waiting.shift()?.();
+  }
+  return new Promise((resolve) => {
+    waiting.push(resolve);
+    (channel as MessageChannel).port2.postMessage(null);
+  });
 }
 
 function cell(m: Maybe): number | CustomFunctions.Error {

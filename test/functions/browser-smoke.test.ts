@@ -48,7 +48,18 @@ test("the built functions bundle registers every FW function in Chromium and com
       // their eval-based generator variants (webpack.config.js): same numbers as under Node.
       const log = Array.from({ length: 40 }, (_, i) => [100 + ((i * 37) % 23) - 11]);
       const coverage = m.COVERAGE(log, log.map(() => [95]), log.map(() => [105]), 80) as (number | string)[][];
+      // Cells recalculated together take turns with the page (a message task every 30 ms of work):
+      // a 10 ms timer must get to run during a batch of "auto" fits (common practice: a long
+      // calculation must not freeze the task pane).
+      let ticks = 0;
+      const tick = setInterval(() => { ticks++; }, 10);
+      const t0 = performance.now();
+      await Promise.all(Array.from({ length: 16 }, (_, s) => m.FAN(Array.from({ length: 120 }, (_, t) => [Math.round(100 * (800 + 37 * s) * Math.exp(0.003 * t + 0.02 * Math.sin(5 * t + s) + 0.15 * Math.cos((2 * Math.PI * t) / 12))) / 100]), 12, "auto", "auto", null, 12, null)));
+      const batchMs = performance.now() - t0;
+      clearInterval(tick);
       return {
+        batchMs,
+        ticks,
         coverage: coverage[0],
         keys: Object.keys(m),
         boxcox0: boxcox[0][0],
@@ -74,6 +85,7 @@ test("the built functions bundle registers every FW function in Chromium and com
     expect(nums.every((v) => typeof v === "number" && Number.isFinite(v))).toBe(true);
     nums.forEach((v, k) => expect(Math.abs((result.coverage[k] as number) - v)).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(v))));
     expect(result.coverage.slice(8)).toEqual(node.slice(8));
+    if (result.batchMs > 150) expect(result.ticks).toBeGreaterThanOrEqual(2); // 0 when the batch held the thread
     expect(errors).toEqual([]);
     expect(offSite).toEqual([]);
   } finally {
