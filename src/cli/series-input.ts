@@ -3,7 +3,7 @@
 // series keeping its own message when it cannot be used.
 import * as path from "path";
 import { EngineError, RawCell, isEngineError, cleanSeries, screenSeries, fitForecast, Forecaster, ZerosRule } from "../engine";
-import { DecimalMark, LongColumns, LongSpec, parseDelimiterOption, parsePeriodLabel, readLongTable, readTable, SeriesTable } from "../io";
+import { DecimalMark, labelAfter, LongColumns, LongSpec, parseDelimiterOption, parsePeriodLabel, readLongTable, readTable, SeriesTable } from "../io";
 import { readCsvFile } from "./csv-file";
 import { ParsedArgs, usageError } from "./options";
 import { Io, oneLine } from "./output";
@@ -130,12 +130,8 @@ export function lastObserved(data: SeriesData, j: number): number {
 export function labelsAfter(data: SeriesData, last: number, H: number): string[] | null {
   const cal = data.calendar;
   if (!cal || !data.next) return null;
-  const n = cal.labels.length;
   const next = data.next;
-  return Array.from({ length: H }, (_, k) => {
-    const at = last + k + 1;
-    return at < n ? cal.labels[at] : next(at - (n - 1));
-  });
+  return Array.from({ length: H }, (_, k) => labelAfter(cal.labels, next, last, k + 1));
 }
 
 /**

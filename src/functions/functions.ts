@@ -250,7 +250,7 @@ let turns: Promise<void> = Promise.resolve();
  * Lets Excel's shared runtime breathe during long work (before each series' fit, between backtest
  * origins), so the pane and Excel stay responsive. Calls take turns in one queue: a recalculation
  * starts many cells at once, and each turn is decided when the work before it has run, so the host
- * gets a turn (a timer task) whenever 30 ms of work have passed since the last one — not only once
+ * gets a turn (a new event-loop task, {@link nextTask}) whenever 30 ms of work have passed since the last one — not only once
  * for the whole batch (bench/cells.js: 50 "auto" cells froze the page for 1.4–1.9 s before).
  */
 function yieldToHost(): Promise<void> {

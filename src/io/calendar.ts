@@ -242,3 +242,16 @@ function decideSlash(rows: LabelledRow[], column: string, lineOf: (r: number) =>
 export function calendarFor(rows: LabelledRow[], column: string, lineOf: (row: number) => string): Calendar {
   return rows[0].parts.family === "slash" ? decideSlash(rows, column, lineOf) : buildCalendar(rows, column, lineOf);
 }
+
+/**
+ * The period label `h` steps after position `last` of a table's rows: the row's own label while
+ * that is still inside the table (a series whose last rows are blank is forecast from its last
+ * value, so its first steps fall on rows of the table), then the calendar's labels after its last
+ * row (`next(k)`: the label k periods after it). Common practice (a forecast starts after the last
+ * observation). One rule for every face.
+ * @example labelAfter(["2026-01", "2026-02", "2026-03"], (k) => `2026-0${3 + k}`, 1, 2) // "2026-04"
+ */
+export function labelAfter(labels: readonly string[], next: (k: number) => string, last: number, h: number): string {
+  const at = last + h;
+  return at < labels.length && labels[at] ? labels[at] : next(at - (labels.length - 1));
+}

@@ -8,7 +8,7 @@ export { parseNumberText, looksNumeric, markEvidence } from "./numbers";
 export type { DecimalMark, NegativeStyle, ParsedNumber, MarkEvidence } from "./numbers";
 export { parsePeriodLabel, fullYear, dayNumber, serialDay, isoDate } from "./period-labels";
 export type { LabelFamily, LabelParts } from "./period-labels";
-export { buildCalendar, calendarFor, DEFAULT_PERIOD } from "./calendar";
+export { buildCalendar, calendarFor, DEFAULT_PERIOD, labelAfter } from "./calendar";
 export type { Calendar, Frequency, LabelledRow } from "./calendar";
 export { CsvColumns, LABEL_NAMES } from "./columns";
 export { readTable } from "./table";

@@ -215,7 +215,11 @@ export class LongColumns extends CsvColumns {
  * @example readLongTable(long).names // ["Harbour Street", "Old Quay"]
  */
 export function readLongTable(cols: LongColumns, options: ReadOptions = {}): SeriesTable {
-  const t = withoutEmptySeries(readTable(cols, { ...options, rowsInAnyOrder: true }), cols);
+  const read = readTable(cols, { ...options, rowsInAnyOrder: true });
+  // The wide rows in time order (−1: a skipped period), and each series' column in the wide table.
+  const order = read.calendar ? read.calendar.order : Int32Array.from({ length: cols.rows }, (_, i) => i);
+  const columnOf = new Map(cols.header.map((h, j) => [h, j]));
+  const t = withoutEmptySeries(read, cols, order, columnOf);
   const notes = t.reading.notes;
   if (cols.unnamed.length) {
     const n = cols.unnamed.length;
@@ -224,10 +228,8 @@ export function readLongTable(cols: LongColumns, options: ReadOptions = {}): Ser
     notes.push(`${places} ${n === 1 ? "has" : "have"} no series name in "${cols.spec.series}"; left out (a total row has none; give ${n === 1 ? "it" : "each"} a series name to forecast ${n === 1 ? "it" : "them"}).`);
   }
   // Periods with no row inside a series (not those no series has: the calendar names them).
-  const order = t.calendar ? t.calendar.order : Int32Array.from({ length: cols.rows }, (_, i) => i);
   const gaps: string[] = [];
   let gapSeries = 0;
-  const columnOf = new Map(cols.header.map((h, j) => [h, j]));
   t.names.forEach((name) => {
     const j = columnOf.get(name) as number;
     let first = -1;
@@ -253,11 +255,9 @@ export function readLongTable(cols: LongColumns, options: ReadOptions = {}): Ser
  * name but no period (`Summe;;99.999,00`) makes a series whose only row is left out as "not a
  * period"; it is dropped with a note naming its lines rather than read as a series with no values.
  * Throws when no series is left. Common practice (a total row is not a series).
- * @example withoutEmptySeries(readTable(cols), cols).names // ["Hafen", "Mühlweg"] (without "Summe")
+ * @example withoutEmptySeries(readTable(cols), cols, order, columnOf).names // ["Hafen", "Mühlweg"] (without "Summe")
  */
-function withoutEmptySeries(t: SeriesTable, cols: LongColumns): SeriesTable {
-  const columnOf = new Map(cols.header.map((h, j) => [h, j]));
-  const order = t.calendar ? t.calendar.order : Int32Array.from({ length: cols.rows }, (_, i) => i);
+function withoutEmptySeries(t: SeriesTable, cols: LongColumns, order: Int32Array, columnOf: Map<string, number>): SeriesTable {
   const keptRow = (j: number): boolean => {
     for (const r of order) if (r >= 0 && cols.hasRow(j, r)) return true;
     return false;

@@ -2,6 +2,7 @@
 // Pure (no DOM, no Office), so it is tested in Node and timed in the browser.
 import { describeForecaster, fanTable, FanTable, fitForecast, isEngineError, RawCell, screenSeries, Forecaster, ZerosRule } from "../engine";
 import { fanChartSvg } from "../chart/fan-chart";
+import { labelAfter } from "../io";
 import { FW_NAMESPACE } from "./namespace";
 import { formatWhole } from "./locale";
 
@@ -239,12 +240,8 @@ export function stepLabeller(data: PaneData, cells: readonly unknown[]): ((h: nu
   if (!next) return undefined;
   let last = cells.length - 1;
   while (last >= 0 && typeof cells[last] !== "number") last--;
-  const rows = cells.length;
-  return (h: number): string => {
-    const i = last + h;
-    if (i < rows && data.rowLabels?.[i]) return data.rowLabels[i];
-    return next(i - (rows - 1));
-  };
+  const labels = data.rowLabels ?? Array.from({ length: cells.length }, () => "");
+  return (h: number): string => labelAfter(labels, next, last, h);
 }
 
 /**

@@ -4,7 +4,8 @@
 import { describeValue, optionalBoolean, optionalKeyword, optionalNumber, readLevels } from "../../src/functions/coerce";
 import { levelList } from "../../src/functions/audit-args";
 import * as FW from "../../src/functions/functions";
-import { isCellError, ShimError } from "../helpers/custom-functions-shim";
+import { ShimError } from "../helpers/custom-functions-shim";
+import { failure } from "../helpers/cell-failure";
 
 describe("single-value arguments", () => {
   test("a 1×1 range is its cell; a 2×1 or 1×2 range is refused naming the argument", () => {
@@ -27,27 +28,16 @@ describe("FW.PINBALL skips rows where either value is blank (pinball loss, Koenk
   });
 });
 
-/** The error a cell function returns or throws (fails the test when it returns numbers). */
-function failure(f: () => unknown): ShimError {
-  try {
-    const v = f();
-    const first = Array.isArray(v) && Array.isArray(v[0]) ? (v[0] as unknown[]).find((c) => isCellError(c)) : undefined;
-    if (first) return first as ShimError;
-  } catch (e) {
-    return e as ShimError;
-  }
-  throw new Error("expected the call to fail");
-}
 
 describe("seed-20 mutation sample: what the cell layer says about blank and oversized arguments", () => {
   const col = (xs: (number | string | null)[]): (number | string | null)[][] => xs.map((x) => [x]);
-  test("FW.TOTALFROMINTERVALS with three blank columns says they hold no numbers", () => {
-    expect(failure(() => FW.TOTALFROMINTERVALS(col([null, ""]), col([null, null]), col(["", null]), 80)).message)
+  test("FW.TOTALFROMINTERVALS with three blank columns says they hold no numbers", async () => {
+    expect((await failure(() => FW.TOTALFROMINTERVALS(col([null, ""]), col([null, null]), col(["", null]), 80))).message)
       .toBe("medians, lowers and uppers hold no numbers; select the published forecast's three columns.");
   });
-  test("FW.TOTALFROMINTERVALS refuses a 2-cell range as λ or dependence, naming it, rather than reading its first cell", () => {
-    expect(failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0], [1]])).message).toMatch(/lambda must be a single cell/);
-    expect(failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0]], [["comonotone", "independent"]])).message).toMatch(/dependence must be a single cell/);
+  test("FW.TOTALFROMINTERVALS refuses a 2-cell range as λ or dependence, naming it, rather than reading its first cell", async () => {
+    expect((await failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0], [1]]))).message).toMatch(/lambda must be a single cell/);
+    expect((await failure(() => FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0]], [["comonotone", "independent"]]))).message).toMatch(/dependence must be a single cell/);
     // a 1×1 range is its cell
     expect(FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, [[0]], [["comonotone"]])).toEqual(FW.TOTALFROMINTERVALS(col([100]), col([80]), col([120]), 80, 0, "comonotone"));
   });

@@ -3,7 +3,7 @@
 // numpy simulations in test/engine/totals-*.test.ts) and against closed forms.
 import * as fs from "fs";
 import * as path from "path";
-import { isCellError, ShimError } from "../helpers/custom-functions-shim";
+import { failure } from "../helpers/cell-failure";
 import * as FW from "../../src/functions/functions";
 import { createRandom, publishedTotal, totalForecast, fitForecast } from "../../src/engine";
 import { dataset, expectClose } from "../helpers/reference";
@@ -13,16 +13,6 @@ const col = (xs: (number | string | null)[]): (number | string | null)[][] => xs
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const fx: any = JSON.parse(fs.readFileSync(path.join(__dirname, "..", "fixtures", "totals", "totals.json"), "utf8"));
 
-async function failure(p: Promise<unknown> | (() => unknown)): Promise<ShimError> {
-  try {
-    const v = typeof p === "function" ? p() : await p;
-    const first = Array.isArray(v) && Array.isArray(v[0]) ? (v[0] as unknown[]).find((c) => isCellError(c)) : undefined;
-    if (first) return first as ShimError;
-  } catch (e) {
-    return e as ShimError;
-  }
-  throw new Error("expected the call to fail");
-}
 
 describe("FW.TOTALFROMINTERVALS", () => {
   const p = fx.localLevel.published;
