@@ -51,3 +51,40 @@ describe("no fit is beaten by a point inside its own box", () => {
     });
   }
 });
+
+describe("every fit meets the first-order conditions of its box (Karush–Kuhn–Tucker; common practice)", () => {
+  // At a minimum of −ℓ over the box, ∂ℓ/∂u vanishes for a coordinate inside the box and points out
+  // of the box for one on a bound. Derivatives by central differences of smoothingAtParams' ℓ in the
+  // box's unit coordinates (one-sided on a bound); the fitted point is read back from its params.
+  const span = SMOOTH_HI - SMOOTH_LO;
+  const cases: [string, SmoothingMethod, number][] = [
+    ["AirPassengers", "holt-winters", 12], ["AirPassengers", "damped-holt-winters", 12], ["UKgas", "holt-winters", 4],
+    ["UKgas", "damped", 4], ["lynx", "damped", 1], ["macrodata_realgdp", "damped", 4], ["airmiles", "holt", 1], ["AirPassengers", "seasonal-ses", 12],
+  ];
+  for (const [name, method, period] of cases) {
+    test(`${name}, ${method}, log scale: |∂ℓ/∂u| < 0.01 inside, outward on a bound`, () => {
+      const w = dataset(name).map(Math.log);
+      const f = fitSmoothing(w, method, period);
+      const p = f.params as Record<string, number>;
+      const trend = p.beta !== undefined;
+      const seasonal = p.gamma !== undefined;
+      const damped = p.phi !== undefined;
+      const clamp = (v: number): number => Math.min(1, Math.max(0, v));
+      const u = [clamp((p.alpha - SMOOTH_LO) / span), trend ? clamp((p.beta / p.alpha - SMOOTH_LO) / span) : 0, seasonal ? clamp((p.gamma / (1 - p.alpha) - SMOOTH_LO) / span) : 0, damped ? clamp((p.phi - PHI_LO) / (PHI_HI - PHI_LO)) : 0];
+      const ll = (v: number[]): number => smoothingAtParams(w, method, period, boxPoint(v, method)).loglik;
+      expectCloseTo(ll(u), f.loglik, 1e-8);
+      const active = [0, ...(trend ? [1] : []), ...(seasonal ? [2] : []), ...(damped ? [3] : [])];
+      const h = 1e-6;
+      for (const i of active) {
+        const at = (d: number): number => { const v = u.slice(); v[i] = u[i] + d; return ll(v); };
+        if (u[i] <= 1e-9) expect((at(h) - at(0)) / h).toBeLessThan(0.01); // may only fall into the box
+        else if (u[i] >= 1 - 1e-9) expect((at(0) - at(-h)) / h).toBeGreaterThan(-0.01);
+        else expect(Math.abs((at(h) - at(-h)) / (2 * h))).toBeLessThan(0.01);
+      }
+    });
+  }
+});
+
+function expectCloseTo(a: number, b: number, tol: number): void {
+  expect(Math.abs(a - b)).toBeLessThan(tol);
+}
