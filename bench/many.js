@@ -7,7 +7,10 @@
 // years of monthly data, in-process. Not a test: it asserts nothing, except that the outputs of
 // every run are byte-equal (long = wide, --jobs 2 = --jobs 1).
 // FANWISE_BENCH_MANY=N series (default 500); FANWISE_BENCH_MANY_MEMORY=a,b runs --jobs 2 on the long
-// file at those sizes too, for memory against the number of series.
+// file at those sizes too, for memory against the number of series. FANWISE_BENCH_MANY_HEAP=MB runs
+// only `--jobs 1` on the long file at each of FANWISE_BENCH_MANY_MEMORY's sizes with Node's heap
+// capped at MB (--max-old-space-size) and without the cap: whether what the run holds grows with
+// the number of series, or only the garbage collector's slack does.
 "use strict";
 const fs = require("fs");
 const os = require("os");
@@ -19,6 +22,7 @@ const ROOT = path.join(__dirname, "..");
 const BIN = path.join(ROOT, "bin", "fanwise.js");
 const COUNT = Number(process.env.FANWISE_BENCH_MANY || 500);
 const MEMORY_SIZES = (process.env.FANWISE_BENCH_MANY_MEMORY || "").split(",").filter(Boolean).map(Number);
+const HEAP_MB = Number(process.env.FANWISE_BENCH_MANY_HEAP || 0);
 const LENGTH = 120;
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "fanwise-bench-many-"));
 
@@ -58,8 +62,8 @@ function writeFiles(series, tag) {
 }
 
 /** Runs fanwise under /usr/bin/time; its output goes to a file. */
-function runFan(file, long, jobs, outFile) {
-  const args = [BIN, "fan", file, "--horizon", "12", "--method", "auto", "--jobs", String(jobs), "--out", outFile, ...(long ? ["--long", "shop,month,sales"] : [])];
+function runFan(file, long, jobs, outFile, nodeArgs = []) {
+  const args = [...nodeArgs, BIN, "fan", file, "--horizon", "12", "--method", "auto", "--jobs", String(jobs), "--out", outFile, ...(long ? ["--long", "shop,month,sales"] : [])];
   const r = spawnSync("/usr/bin/time", ["-f", "%e %U %S %M", process.execPath, ...args], { encoding: "utf8", maxBuffer: 1 << 26 });
   const last = r.stderr.trim().split("\n").pop();
   const [wall, user, sys, kb] = last.split(" ").map(Number);
@@ -84,7 +88,25 @@ function calibrate() {
   return { one, two, gain: (2 * one) / two };
 }
 
+/** Heap-capped and uncapped runs at several sizes (FANWISE_BENCH_MANY_HEAP). */
+function heapRuns() {
+  console.log(`many series, memory: fan --method auto --horizon 12, long file, --jobs 1; heap capped at ${HEAP_MB} MB and uncapped; Node ${process.version}, load ${os.loadavg().map((x) => x.toFixed(1)).join(" ")}`);
+  for (const n of MEMORY_SIZES) {
+    const fm = writeFiles(makeSeries(n, LENGTH, 20261202), n);
+    const outs = [];
+    for (const nodeArgs of [[`--max-old-space-size=${HEAP_MB}`], []]) {
+      const out = path.join(dir, `out-heap-${n}-${nodeArgs.length}.csv`);
+      const m = runFan(fm.long, true, 1, out, nodeArgs);
+      outs.push(fs.readFileSync(out, "utf8"));
+      console.log(`${n} series, ${nodeArgs.length ? `heap ≤ ${HEAP_MB} MB` : "no cap"}: peak ${m.mb.toFixed(0)} MB, ${m.wall.toFixed(1)} s wall (${(n / m.wall).toFixed(1)} series/s), CPU ${m.cpu.toFixed(1)} s`);
+    }
+    console.log(`  outputs equal: ${outs[0] === outs[1] ? "yes" : "NO"}`);
+  }
+  fs.rmSync(dir, { recursive: true, force: true });
+}
+
 function main() {
+  if (HEAP_MB) return heapRuns();
   console.log(`many series: ${COUNT} × ${LENGTH} monthly points, fan --method auto --horizon 12; ${os.cpus().length} cores, load ${os.loadavg().map((x) => x.toFixed(1)).join(" ")}, Node ${process.version}`);
   const series = makeSeries(COUNT, LENGTH, 20261202);
   const f = writeFiles(series, COUNT);
