@@ -13,10 +13,11 @@ import { SeriesData } from "./table";
 
 /**
  * Fewer series than this run on one thread by default: a worker thread's start (loading the engine:
- * 1.4–2.2 s of CPU measured on the shared 2-core machine, about 40 `auto` fits of 120 months; see
- * bench/README.md) is not repaid by a few series.
+ * 1.4–2.2 s of CPU, about 100 `auto` fits of 120 months since the fits follow their gradient) is
+ * not repaid by a few series. Measured on 2 cores (bench/README.md, "where two threads start to
+ * pay"): `--jobs 2` was slower at 50 and 100 series, even at 150–200, 1.22× faster at 300.
  */
-export const PARALLEL_MIN_SERIES = 50;
+export const PARALLEL_MIN_SERIES = 200;
 
 /** The --jobs option, shared by the commands that work series by series. */
 export const JOBS_OPTION = {
