@@ -15,7 +15,7 @@ import { SeriesData } from "./table";
  * Fewer series than this run on one thread by default: a worker thread's start (loading the engine:
  * 1.4–2.2 s of CPU, about 100 `auto` fits of 120 months since the fits follow their gradient) is
  * not repaid by a few series. Measured on 2 cores (bench/README.md, "where two threads start to
- * pay"): `--jobs 2` was slower at 50 and 100 series, even at 150–200, 1.22× faster at 300.
+ * pay"): `--jobs 2` was slower at 50 and 100 series, about even at 150–200, 1.22× faster at 300.
  */
 export const PARALLEL_MIN_SERIES = 200;
 
