@@ -33,9 +33,12 @@ const PLAN = {
   "src/engine/audit": ["audit", "audit-edges", "audit-definitions", "audit-log", "backtest-recomputed"].map((n) => `test/engine/${n}.test.ts`),
   "src/engine/totals": ["totals-published", "totals-edges", "totals-across", "totals-window", "smearing"].map((n) => `test/engine/${n}.test.ts`),
   "src/engine/series": [...["screen", "series-edges", "missing", "bad-input"].map((n) => `test/engine/${n}.test.ts`), "test/functions/header-rule.test.ts"],
-  "src/engine/_lib": ["lib", "lib-edges", "distribution", "backtransform", "simulation", "totals-published", "ets"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/_lib": ["lib", "lib-edges", "projected-bfgs", "distribution", "backtransform", "simulation", "totals-published", "ets"].map((n) => `test/engine/${n}.test.ts`),
   "src/engine/models/arima": ["arima", "arima-gaps", "arima-se", "models-edges"].map((n) => `test/engine/${n}.test.ts`),
-  "src/engine/models": ["ets", "models-edges", "forecast", "simulation", "fit-quality", "missing", "transform-forecast", "lambda-model", "screen"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/models": ["ets", "ets-gradient", "models-edges", "forecast", "simulation", "fit-quality", "missing", "transform-forecast", "lambda-model", "screen"].map((n) => `test/engine/${n}.test.ts`),
+  // single files, run only when named (e.g. a new file, every one of its mutants)
+  "src/engine/_lib/projected-bfgs.ts": ["projected-bfgs", "fit-quality", "ets"].map((n) => `test/engine/${n}.test.ts`),
+  "src/engine/models/ets-gradient.ts": ["ets-gradient", "fit-quality", "ets"].map((n) => `test/engine/${n}.test.ts`),
   "src/functions": ["functions", "forecast-functions", "audit-functions", "totals-functions", "arima-functions", "bad-input",
     "error-messages", "forecast-cache-keys", "header-rule", "missing-cells", "cancel", "coerce-edges"].map((n) => `test/functions/${n}.test.ts`),
 };
@@ -56,7 +59,7 @@ for (const f of chosen) {
     process.exit(2);
   }
 }
-const folders = chosen.length ? chosen.map((f) => f.replace(/\/$/, "")) : Object.keys(PLAN);
+const folders = chosen.length ? chosen.map((f) => f.replace(/\/$/, "")) : Object.keys(PLAN).filter((k) => !k.endsWith(".ts"));
 const slug = (folder) => folder.replace(/^src\//, "").replace(/[/]/g, "-");
 
 fs.mkdirSync(path.join(root, "reports", "mutation"), { recursive: true });
@@ -65,6 +68,7 @@ delete base.$schema;
 
 /** The folder's source files (the models folder's own run leaves out arima/, which has its own line). */
 function sourceFiles(folder) {
+  if (folder.endsWith(".ts")) return [folder];
   const out = [];
   const walk = (dir) => {
     for (const e of fs.readdirSync(path.join(root, dir), { withFileTypes: true })) {
@@ -151,7 +155,7 @@ if (args.includes("--recheck")) {
 // --summary: only the table, from the reports already written.
 for (const folder of args.includes("--summary") ? [] : folders) {
   const name = slug(folder);
-  let mutate = folder === "src/engine/models"
+  let mutate = folder.endsWith(".ts") ? [folder] : folder === "src/engine/models"
     ? [`${folder}/*.ts`]
     : [`${folder}/**/*.ts`, "!src/engine/_lib/mathjs-factories.ts"];
   const extra = {};

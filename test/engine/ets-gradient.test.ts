@@ -9,7 +9,7 @@ import type { SmoothingMethod } from "../../src/engine";
 import { createRandom } from "../../src/engine/_lib/random";
 import { sseGradient } from "../../src/engine/models/ets-gradient";
 import { concentratedObjective } from "../../src/engine/models/ets";
-import { PHI_HI, PHI_LO, SMOOTH_HI, SMOOTH_LO } from "../../src/engine";
+import { boxParams } from "../helpers/smoothing-box";
 import { dataset, expectClose } from "../helpers/reference";
 
 const FORMS: [SmoothingMethod, { trend: boolean; damped: boolean; seasonal: boolean }][] = [
@@ -87,22 +87,13 @@ describe("the fit's objective ln SSE*(u) and its gradient in the box's unit coor
   // rule through β = α·β*, γ = (1 − α)·γ*), at points inside the box, near its edges and at γ*
   // near 1, where the α-derivative's γ term is largest. Common practice (gradient check).
   const y = dataset("AirPassengers").map(Math.log);
-  const span = SMOOTH_HI - SMOOTH_LO;
-  const point = (u: number[], form: { trend: boolean; damped: boolean; seasonal: boolean }) => {
-    const alpha = SMOOTH_LO + span * u[0];
-    let i = 1;
-    const beta = form.trend ? alpha * (SMOOTH_LO + span * u[i++]) : 0;
-    const gamma = form.seasonal ? (1 - alpha) * (SMOOTH_LO + span * u[i++]) : 0;
-    const phi = form.damped ? PHI_LO + (PHI_HI - PHI_LO) * u[i++] : 1;
-    return { alpha, beta, gamma, phi };
-  };
   for (const [method, form] of FORMS) {
     test(`AirPassengers, ${method} (relative 1e-5)`, () => {
       const m = form.seasonal ? 12 : 1;
       const d = used(form).length;
       const objective = concentratedObjective(y, method, m);
       const reference = (u: number[]): number => {
-        const f = smoothingAtParams(y, method, m, point(u, form));
+        const f = smoothingAtParams(y, method, m, boxParams(u, form, true));
         return Math.log(f.n * f.sigma * f.sigma);
       };
       for (const base of [[0.3, 0.2, 0.4, 0.5], [0.05, 0.9, 0.97, 0.1], [0.6, 0.02, 0.05, 0.95]]) {

@@ -5,23 +5,17 @@ import * as fs from "fs";
 import * as path from "path";
 import { boxCox, createRandom, fitSmoothing, PHI_HI, PHI_LO, SMOOTH_HI, SMOOTH_LO, smoothingAtParams } from "../../src/engine";
 import type { SmoothingMethod } from "../../src/engine";
-import { dataset } from "../helpers/reference";
+import { dataset, expectClose } from "../helpers/reference";
+import { boxParams } from "../helpers/smoothing-box";
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const cpi: any = JSON.parse(fs.readFileSync(path.join(__dirname, "..", "fixtures", "fit", "fit.json"), "utf8"));
 
 function boxPoint(u: number[], method: SmoothingMethod): { alpha: number; beta: number; gamma: number; phi: number } {
-  const span = SMOOTH_HI - SMOOTH_LO;
-  const alpha = SMOOTH_LO + span * u[0];
   const trend = method !== "ses" && method !== "seasonal-ses";
   const seasonal = method === "seasonal-ses" || method === "holt-winters" || method === "damped-holt-winters";
   const damped = method === "damped" || method === "damped-holt-winters";
-  return {
-    alpha,
-    beta: trend ? alpha * (SMOOTH_LO + span * u[1]) : 0,
-    gamma: seasonal ? (1 - alpha) * (SMOOTH_LO + span * u[2]) : 0,
-    phi: damped ? PHI_LO + (PHI_HI - PHI_LO) * u[3] : 1,
-  };
+  return boxParams(u, { trend, seasonal, damped });
 }
 
 describe("no fit is beaten by a point inside its own box", () => {
@@ -72,7 +66,7 @@ describe("every fit meets the first-order conditions of its box (Karushâ€“Kuhnâ€
       const clamp = (v: number): number => Math.min(1, Math.max(0, v));
       const u = [clamp((p.alpha - SMOOTH_LO) / span), trend ? clamp((p.beta / p.alpha - SMOOTH_LO) / span) : 0, seasonal ? clamp((p.gamma / (1 - p.alpha) - SMOOTH_LO) / span) : 0, damped ? clamp((p.phi - PHI_LO) / (PHI_HI - PHI_LO)) : 0];
       const ll = (v: number[]): number => smoothingAtParams(w, method, period, boxPoint(v, method)).loglik;
-      expectCloseTo(ll(u), f.loglik, 1e-8);
+      expectClose(ll(u), f.loglik, { atol: 1e-8 }, "â„“ at the fitted point read back");
       const active = [0, ...(trend ? [1] : []), ...(seasonal ? [2] : []), ...(damped ? [3] : [])];
       const h = 1e-6;
       for (const i of active) {
@@ -85,6 +79,3 @@ describe("every fit meets the first-order conditions of its box (Karushâ€“Kuhnâ€
   }
 });
 
-function expectCloseTo(a: number, b: number, tol: number): void {
-  expect(Math.abs(a - b)).toBeLessThan(tol);
-}

@@ -406,6 +406,44 @@ const BOUND_PROBES = [0.01, 0.025, 0.05, 0.08];
 /** Evaluations allowed to each short run from a grid start. */
 const SCOUT_EVALUATIONS = 50;
 
+/**
+ * Projected quasi-Newton runs with the analytic gradient from every chosen start, each to its local
+ * optimum; the best of them, after a look just off the bounds it sits on, is the fit
+ * (bench/README.md: as good as statsmodels' fit on the benchmark's series or better, in about a
+ * third of the evaluations of the simplex runs). Returns the point in unit coordinates.
+ */
+function searchWithGradient(obj: (u: ArrayLike<number>) => number, withGradient: (u: ArrayLike<number>, g: Float64Array) => number, grid: { u: number[]; f: number }[], chosen: number[][], quick: boolean): number[] {
+  const run = (start: ArrayLike<number>): { x: number[]; fx: number } =>
+    minimizeBoxWithGradient(withGradient, start, { maxIterations: quick ? 30 : 100, gTol: quick ? 1e-5 : 1e-9 });
+  let top = { x: grid[0].u, fx: grid[0].f };
+  for (const start of chosen) {
+    const r = run(start);
+    if (r.fx < top.fx) top = r;
+  }
+  return (quick ? top : offTheBounds(obj, run, top)).x;
+}
+
+/**
+ * Short Nelder–Mead runs from every chosen start, then a full run from the best of them: the local
+ * optima of these likelihoods sit on edges and corners of the box, and which start reaches the
+ * best one varies from series to series (bench/README.md: 2 full runs missed statsmodels' optimum
+ * on 1.0–1.2% of the benchmark's series, 8 short ones on ≤ 0.2%); unless `quick`, a polish and the
+ * in-box refinement. Used for series with gaps. Returns the point in unit coordinates.
+ */
+function searchBySimplex(obj: (u: ArrayLike<number>) => number, grid: { u: number[]; f: number }[], chosen: number[][], quick: boolean): number[] {
+  let scout = { x: grid[0].u, fx: grid[0].f };
+  for (const start of chosen) {
+    const r = minimizeBox(obj, start, 0.15, 1e-4, 1e-2, SCOUT_EVALUATIONS);
+    if (r.fx < scout.fx) scout = r;
+  }
+  const full = minimizeBox(obj, scout.x, 0.05, 1e-5, 1e-3, 120);
+  const best = full.fx < scout.fx ? full : scout;
+  if (quick) return best.x;
+  const polish = minimizeBox(obj, best.x, 0.01, 1e-10, 1e-7, 150);
+  const top = polish.fx < best.fx ? polish : best;
+  return refineInBox(obj, top.x, top.fx).x;
+}
+
 /** Options for {@link fitSmoothing}. */
 export interface SmoothingFitOptions {
   /** Local runs from the best distinct grid starts (default 8; 2 when `quick`). */
@@ -482,42 +520,7 @@ export function fitSmoothing(y: readonly number[], method: SmoothingMethod, peri
       if (chosen.length >= (options.starts ?? (options.quick ? 2 : 8))) break;
       if (chosen.every((c) => c.some((v, i) => Math.abs(v - g.u[i]) > apart))) chosen.push(g.u);
     }
-    if (objWithGradient) {
-      // Projected quasi-Newton runs with the analytic gradient from every chosen start, each to
-      // its local optimum; the best of them, after a look just off the bounds it sits on, is the
-      // fit (bench/README.md: as good as statsmodels' fit on the benchmark's series or better, in
-      // about a third of the evaluations of the simplex runs below).
-      const withGradient = objWithGradient;
-      const run = (start: ArrayLike<number>): { x: number[]; fx: number } =>
-        minimizeBoxWithGradient(withGradient, start, { maxIterations: options.quick ? 30 : 100, gTol: options.quick ? 1e-5 : 1e-9 });
-      let top = { x: grid[0].u, fx: grid[0].f };
-      for (const start of chosen) {
-        const r = run(start);
-        if (r.fx < top.fx) top = r;
-      }
-      if (!options.quick) top = offTheBounds(obj, run, top);
-      const p = smoothingFromUnit(top.x, spec);
-      return buildModel(y, method, period, p, statesAt(p));
-    }
-    // Short Nelder–Mead runs from every chosen start, then a full run from the best of them: the
-    // local optima of these likelihoods sit on edges and corners of the box, and which start
-    // reaches the best one varies from series to series (bench/README.md: 2 full runs missed
-    // statsmodels' optimum on 1.0–1.2% of the benchmark's series, 8 short ones on ≤ 0.2%).
-    let best = { x: grid[0].u, fx: grid[0].f };
-    let scout = best;
-    for (const start of chosen) {
-      const r = minimizeBox(obj, start, 0.15, 1e-4, 1e-2, SCOUT_EVALUATIONS);
-      if (r.fx < scout.fx) scout = r;
-    }
-    const full = minimizeBox(obj, scout.x, 0.05, 1e-5, 1e-3, 120);
-    best = full.fx < scout.fx ? full : scout;
-    if (options.quick) {
-      const p = smoothingFromUnit(best.x, spec);
-      return buildModel(y, method, period, p, statesAt(p));
-    }
-    const polish = minimizeBox(obj, best.x, 0.01, 1e-10, 1e-7, 150);
-    const top = polish.fx < best.fx ? polish : best;
-    bestU = refineInBox(obj, top.x, top.fx).x;
+    bestU = objWithGradient ? searchWithGradient(obj, objWithGradient, grid, chosen, options.quick ?? false) : searchBySimplex(obj, grid, chosen, options.quick ?? false);
   }
   const p = smoothingFromUnit(bestU, spec);
   return buildModel(y, method, period, p, statesAt(p));
